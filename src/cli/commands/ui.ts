@@ -1,0 +1,12 @@
+import type { Command } from '../command.js';
+
+// Placeholder until this command lands; it says so rather than pretending to work.
+export const command: Command = {
+  name: 'ui',
+  summary: '',
+  help: 'voltwalk ui: not built yet.',
+  async run(_args, io) {
+    io.stderr('voltwalk ui: not built yet\n');
+    return 2;
+  },
+};
