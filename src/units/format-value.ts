@@ -1,0 +1,37 @@
+/**
+ * Engineering notation for people: 4700 -> "4.7 kΩ", 1e-7 -> "100 nF", -11.93 -> "-11.9 V".
+ * An ASCII minus is used so the text can be pasted back into any input that takes values.
+ */
+const PREFIXES: Array<[number, string]> = [
+  [1e9, 'G'],
+  [1e6, 'M'],
+  [1e3, 'k'],
+  [1, ''],
+  [1e-3, 'm'],
+  [1e-6, 'µ'],
+  [1e-9, 'n'],
+  [1e-12, 'p'],
+];
+
+export function formatValue(value: number, unit = '', significant = 3): string {
+  if (!Number.isFinite(value)) return `${value > 0 ? '' : '-'}∞${unit ? ` ${unit}` : ''}`;
+  if (value === 0) return `0${unit ? ` ${unit}` : ''}`;
+  const magnitude = Math.abs(value);
+  let [scale, prefix] = PREFIXES[PREFIXES.length - 1];
+  for (const entry of PREFIXES) {
+    if (magnitude >= entry[0] * 0.9995) {
+      [scale, prefix] = entry;
+      break;
+    }
+  }
+  let scaled = value / scale;
+  // Rounding can carry into the next prefix (999.96 k -> 1000 k): step up once if so.
+  if (Number(Math.abs(scaled).toPrecision(significant)) >= 1000 && scale < 1e9) {
+    const up = PREFIXES[PREFIXES.findIndex((p) => p[0] === scale) - 1];
+    [scale, prefix] = up;
+    scaled = value / scale;
+  }
+  const text = String(Number(scaled.toPrecision(significant)));
+  const sep = unit || prefix ? ' ' : '';
+  return `${text}${sep}${prefix}${unit}`;
+}
