@@ -145,8 +145,10 @@ export function parseValue(text: string, opts: { unit?: UnitSymbol; field?: stri
   if (unit && opts.unit && unit !== opts.unit) {
     fail(text, field, `the unit is ${unit} but ${opts.unit} is expected`, `a value in ${opts.unit}, e.g. ${example(opts.unit)}`);
   }
-  const value = parseNumber(core.replace(/\s+/g, ''), text, field);
-  if (!Number.isFinite(value)) fail(text, field, 'out of range');
+  const raw = parseNumber(core.replace(/\s+/g, ''), text, field);
+  if (!Number.isFinite(raw)) fail(text, field, 'out of range');
+  // 100 * 1e-9 is 1.0000000000000001e-7 in binary floating point; 12 figures is beyond any part's precision.
+  const value = Number(raw.toPrecision(12));
   return { value, unit: unit ?? opts.unit, tolerance };
 }
 
