@@ -1,0 +1,43 @@
+import { spreadOf, type FaultDictionary } from './dictionary-model.js';
+import { DEFAULT_METER, type MeterSpec } from './meter.js';
+
+/**
+ * Two hypotheses can be told apart when, at some observable (measured or still measurable), their
+ * predicted readings lie further apart than both bands and the meter's window together. A
+ * hypothesis the solver could not settle is never merged: nothing says it looks like another.
+ */
+export function distinguishable(dict: FaultDictionary, a: number, b: number, meter: MeterSpec = DEFAULT_METER): boolean {
+  const ha = dict.hypotheses[a];
+  const hb = dict.hypotheses[b];
+  for (let i = 0; i < dict.observables.length; i++) {
+    const obs = dict.observables[i];
+    const sa = spreadOf(obs, ha, i, meter);
+    const sb = spreadOf(obs, hb, i, meter);
+    if (!sa || !sb) return true;
+    if (Math.abs(sa.centre - sb.centre) > sa.reach + sb.reach) return true;
+  }
+  return false;
+}
+
+/**
+ * Ambiguity groups: sets of hypotheses no reading in play can separate. Built greedily in the given
+ * order (most probable first), a hypothesis joining the first group whose every member it cannot be
+ * told apart from (complete linkage, so a chain of near neighbours never merges two distinct faults).
+ * Returns, per hypothesis in `order`, its group number counted from 0.
+ */
+export function ambiguityGroups(dict: FaultDictionary, order: number[], meter: MeterSpec = DEFAULT_METER): Map<number, number> {
+  const groups: number[][] = [];
+  const groupOf = new Map<number, number>();
+  for (const h of order) {
+    let joined = -1;
+    for (let g = 0; g < groups.length && joined < 0; g++) {
+      if (groups[g].every((m) => !distinguishable(dict, h, m, meter))) joined = g;
+    }
+    if (joined < 0) {
+      groups.push([h]);
+      joined = groups.length - 1;
+    } else groups[joined].push(h);
+    groupOf.set(h, joined);
+  }
+  return groupOf;
+}

@@ -1,0 +1,117 @@
+import { clampOhms, meterAccuracy, type MeterSpec } from './meter.js';
+
+/**
+ * The fault dictionary as the ranking sees it: what each hypothesis (no fault, or one fault) predicts
+ * at every observable (a test point under a condition). Kept apart from the board and the solver so
+ * the Bayes and entropy arithmetic can be checked on hand-made dictionaries.
+ */
+
+export type Access = 'pad' | 'leg' | 'ic-pin' | 'header' | 'jack';
+
+/** Easier probes first: a pad beats a leg beats an IC pin beats a header or jack contact. */
+export const ACCESS_RANK: Record<Access, number> = { pad: 0, leg: 1, 'ic-pin': 2, header: 3, jack: 3 };
+
+export interface Observable {
+  testPoint: string;
+  condition: string;
+  unit: 'V' | 'Ω';
+  access: Access;
+  /** Healthy (no-fault) expected reading. */
+  nominal: number;
+  /** Half-width of the healthy tolerance band, in the reading's unit. */
+  halfWidth: number;
+  /** Largest magnitude a reading here can plausibly take (the rails, or the meter's top range). */
+  span: number;
+}
+
+export const NO_FAULT = 'none';
+
+export interface Hypothesis {
+  /** "none" for the healthy board, else e.g. "R21/open". */
+  id: string;
+  /** Designator of the suspect part ("none" for the healthy board). */
+  part: string;
+  /** Machine name of the fault mode ("open", "reversed" …). */
+  mode: string;
+  /** Plain words: "open", "wrong value 47 kΩ". */
+  fault: string;
+  /** Relative prior weight (normalised by the ranking). */
+  prior: number;
+  /** Predicted reading per observable, same order; NaN where the solver could not settle. */
+  predictions: number[];
+  /** Half-width of this hypothesis's own band per observable, when it was computed; else estimated. */
+  halfWidths?: number[];
+}
+
+export interface FaultDictionary {
+  observables: Observable[];
+  /** hypotheses[0] is the healthy board. */
+  hypotheses: Hypothesis[];
+}
+
+export interface Reading {
+  testPoint: string;
+  condition: string;
+  value: number;
+}
+
+export const observableKey = (testPoint: string, condition: string) => `${condition}:${testPoint}`;
+
+/**
+ * A fault's band is not computed per fault by default (that would be a Monte Carlo run per fault);
+ * it is estimated from the healthy band's relative width at that observable, applied to the fault's
+ * own predicted value, and never narrower than the healthy band. Near 0 V a relative width means
+ * little, so it is taken against at least 1 V (or 1 Ω), and capped at 30 % so a band around a few
+ * millivolts of offset does not swallow a rail.
+ */
+export function modelHalfWidth(obs: Observable, h: Hypothesis, index: number): number {
+  const own = h.halfWidths?.[index];
+  if (own !== undefined && Number.isFinite(own)) return own;
+  const prediction = h.predictions[index];
+  if (h.id === NO_FAULT) return obs.halfWidth;
+  const relative = Math.min(obs.halfWidth / Math.max(Math.abs(obs.nominal), 1), 0.3);
+  return Math.max(obs.halfWidth, relative * Math.abs(prediction));
+}
+
+/**
+ * Readings are compared in a domain where errors are roughly even: volts as they are, resistance as
+ * ln(R + 1 Ω), since ohm errors are proportional and "OL" must sit at a finite place.
+ */
+export function toDomain(obs: Observable, value: number, meter: MeterSpec): number {
+  if (obs.unit === 'V') return value;
+  return Math.log(clampOhms(value, meter) + 1);
+}
+
+/** Half-width in the comparison domain of a band of `half` around `value`. */
+export function halfInDomain(obs: Observable, value: number, half: number, meter: MeterSpec): number {
+  if (obs.unit === 'V') return half;
+  const r = clampOhms(value, meter);
+  return half / (r + 1);
+}
+
+export interface Spread {
+  /** Centre in the comparison domain. */
+  centre: number;
+  /** Model band plus meter accuracy, half-width in the domain: the "cannot tell apart" reach. */
+  reach: number;
+  /** Standard deviation for the likelihood: the band and the meter window read as ±2σ each. */
+  sigma: number;
+}
+
+export function spreadOf(obs: Observable, h: Hypothesis, index: number, meter: MeterSpec): Spread | undefined {
+  const prediction = h.predictions[index];
+  if (!Number.isFinite(prediction)) return undefined;
+  const model = halfInDomain(obs, prediction, modelHalfWidth(obs, h, index), meter);
+  const reading = halfInDomain(obs, prediction, meterAccuracy(obs.unit === 'Ω' ? clampOhms(prediction, meter) : prediction, obs.unit, meter), meter);
+  return {
+    centre: toDomain(obs, prediction, meter),
+    reach: model + reading,
+    sigma: Math.hypot(model / 2, reading / 2),
+  };
+}
+
+/** Width of the comparison domain: the denominator of the "anything could happen" likelihood. */
+export function domainWidth(obs: Observable, meter: MeterSpec): number {
+  if (obs.unit === 'V') return 2 * obs.span;
+  return Math.log(meter.maxOhms + 1);
+}

@@ -1,0 +1,111 @@
+import { ACCESS_RANK, spreadOf, type FaultDictionary } from './dictionary-model.js';
+import { entropyBits } from './posterior.js';
+import { DEFAULT_METER, type MeterSpec } from './meter.js';
+
+export interface NextProbe {
+  testPoint: string;
+  condition: string;
+  /** Expected drop in the suspects' entropy from taking this reading, in bits. */
+  expectedInformationBits: number;
+}
+
+export interface ProbeOptions {
+  meter?: MeterSpec;
+  /** Observables already read (indices into dict.observables). */
+  measured?: Set<number>;
+  /** Condition of the latest reading: staying in it spares the person a change of set-up. */
+  currentCondition?: string;
+  /** Gains closer than this count as equal, and the tie goes to the easier probe. */
+  tieBits?: number;
+  /** Below this expected gain no probe is worth suggesting. */
+  minimumBits?: number;
+}
+
+/**
+ * Splits the hypotheses by what a reading at one observable could tell apart: predictions sorted in
+ * the comparison domain, a new bin opening where a prediction lies beyond the reach (band plus meter)
+ * of the bin's first member. Returns, per hypothesis, its bin, or -1 when it predicts nothing there.
+ */
+export function binsAt(dict: FaultDictionary, obsIndex: number, meter: MeterSpec = DEFAULT_METER, live?: number[]): { bin: Int32Array; count: number } {
+  const obs = dict.observables[obsIndex];
+  const members = live ?? dict.hypotheses.map((_, i) => i);
+  const bin = new Int32Array(dict.hypotheses.length).fill(-1);
+  const placed: Array<{ h: number; centre: number; reach: number }> = [];
+  for (const h of members) {
+    const s = spreadOf(obs, dict.hypotheses[h], obsIndex, meter);
+    if (s) placed.push({ h, centre: s.centre, reach: s.reach });
+  }
+  placed.sort((a, b) => a.centre - b.centre);
+  let count = 0;
+  let start: { centre: number; reach: number } | undefined;
+  for (const p of placed) {
+    if (!start || p.centre - start.centre > start.reach + p.reach) {
+      start = p;
+      count++;
+    }
+    bin[p.h] = count - 1;
+  }
+  return { bin, count };
+}
+
+/**
+ * Expected entropy of the hypotheses after reading one observable (one-step look-ahead, the
+ * minimum-entropy measurement choice of de Kleer & Williams, Artificial Intelligence 32, 1987).
+ * A hypothesis that predicts nothing there is spread evenly over the bins.
+ */
+export function expectedEntropyAfter(dict: FaultDictionary, probabilities: number[], obsIndex: number, meter: MeterSpec = DEFAULT_METER, live?: number[]): number {
+  const members = live ?? dict.hypotheses.map((_, i) => i);
+  const { bin, count } = binsAt(dict, obsIndex, meter, members);
+  const bins = Math.max(count, 1);
+  const mass: number[][] = Array.from({ length: bins }, () => []);
+  for (const h of members) {
+    const p = probabilities[h];
+    if (!(p > 0)) continue;
+    if (bin[h] >= 0) mass[bin[h]].push(p);
+    else for (const m of mass) m.push(p / bins);
+  }
+  let expected = 0;
+  for (const m of mass) {
+    const total = m.reduce((a, b) => a + b, 0);
+    if (total > 0) expected += total * entropyBits(m.map((p) => p / total));
+  }
+  return expected;
+}
+
+/** The unmeasured observable whose reading is expected to leave the least uncertainty. */
+export function nextProbe(dict: FaultDictionary, probabilities: number[], options: ProbeOptions = {}): NextProbe | undefined {
+  const meter = options.meter ?? DEFAULT_METER;
+  const tie = options.tieBits ?? 0.01;
+  const minimum = options.minimumBits ?? 0.01;
+  // Hypotheses already ruled out change nothing; leaving them out keeps the look-ahead cheap.
+  const most = Math.max(...probabilities);
+  const live = probabilities.map((p, i) => (p > most * 1e-9 ? i : -1)).filter((i) => i >= 0);
+  const total = live.reduce((a, i) => a + probabilities[i], 0);
+  const now = entropyBits(live.map((i) => probabilities[i] / total));
+  const normalised = probabilities.map((p) => p / total);
+  const gains = dict.observables.map((_, index) =>
+    options.measured?.has(index) ? -Infinity : now - expectedEntropyAfter(dict, normalised, index, meter, live),
+  );
+  const top = Math.max(...gains);
+  if (!(top >= minimum)) return undefined;
+  // Among probes within `tie` of the best, the one least trouble to take.
+  let best = -1;
+  gains.forEach((gain, index) => {
+    if (gain < top - tie) return;
+    if (best < 0 || easier(dict, index, best, options.currentCondition) || (!easier(dict, best, index, options.currentCondition) && gain > gains[best])) best = index;
+  });
+  const obs = dict.observables[best];
+  return { testPoint: obs.testPoint, condition: obs.condition, expectedInformationBits: round(gains[best]) };
+}
+
+/** Staying in the present set-up first (changing a condition means re-wiring the bench), then access. */
+function easier(dict: FaultDictionary, a: number, b: number, current?: string): boolean {
+  const oa = dict.observables[a];
+  const ob = dict.observables[b];
+  const stayA = oa.condition === current ? 0 : 1;
+  const stayB = ob.condition === current ? 0 : 1;
+  if (stayA !== stayB) return stayA < stayB;
+  return ACCESS_RANK[oa.access] < ACCESS_RANK[ob.access];
+}
+
+const round = (bits: number) => Math.round(bits * 1000) / 1000;

@@ -1,0 +1,76 @@
+import { UserInputError } from '../errors.js';
+import { domainWidth, observableKey, spreadOf, toDomain, type FaultDictionary, type Reading } from './dictionary-model.js';
+import { DEFAULT_METER, type MeterSpec } from './meter.js';
+
+export interface PosteriorOptions {
+  meter?: MeterSpec;
+  /**
+   * Share of the likelihood given to "the model is wrong here" (a flat density over the whole
+   * range), so one reading the simulation did not foresee lowers a hypothesis without erasing it.
+   */
+  outlier?: number;
+}
+
+export const DEFAULT_OUTLIER = 0.01;
+
+/** Index of each reading's observable; an unknown pair is the user's typo, named in the error. */
+export function locateReadings(dict: FaultDictionary, readings: Reading[]): number[] {
+  const index = new Map(dict.observables.map((o, i) => [observableKey(o.testPoint, o.condition), i]));
+  return readings.map((r, k) => {
+    const i = index.get(observableKey(r.testPoint, r.condition));
+    if (i === undefined) {
+      const here = dict.observables.filter((o) => o.condition === r.condition).map((o) => o.testPoint);
+      throw new UserInputError({
+        code: 'rank.unknown-observable',
+        path: `readings[${k}]`,
+        message: `${r.testPoint} is not measured under condition "${r.condition}"`,
+        accepted: here.length > 0 ? here.join(', ') : `a condition of the board: ${[...new Set(dict.observables.map((o) => o.condition))].join(', ')}`,
+      });
+    }
+    return i;
+  });
+}
+
+/** ln of the likelihood of one reading under one hypothesis. */
+export function logLikelihood(dict: FaultDictionary, h: number, obsIndex: number, value: number, options: PosteriorOptions = {}): number {
+  const meter = options.meter ?? DEFAULT_METER;
+  const outlier = options.outlier ?? DEFAULT_OUTLIER;
+  const obs = dict.observables[obsIndex];
+  const flat = 1 / domainWidth(obs, meter);
+  const spread = spreadOf(obs, dict.hypotheses[h], obsIndex, meter);
+  // A hypothesis the solver could not settle predicts nothing: every reading is as likely as any other.
+  if (!spread) return Math.log(flat);
+  const z = (toDomain(obs, value, meter) - spread.centre) / spread.sigma;
+  const gauss = Math.exp(-0.5 * z * z) / (spread.sigma * Math.sqrt(2 * Math.PI));
+  return Math.log((1 - outlier) * gauss + outlier * flat);
+}
+
+/**
+ * Bayes' rule over single-fault hypotheses: P(h | readings) ∝ P(h) · Π P(reading | h), the readings
+ * independent given h (each carries its own meter error). Worked in logs and normalised with the
+ * log-sum-exp shift so a long run of readings cannot underflow. Returns one probability per hypothesis.
+ */
+export function posterior(dict: FaultDictionary, readings: Reading[], options: PosteriorOptions = {}): number[] {
+  const where = locateReadings(dict, readings);
+  const logs = dict.hypotheses.map((h, i) => {
+    let sum = Math.log(Math.max(h.prior, 0));
+    for (let k = 0; k < readings.length; k++) sum += logLikelihood(dict, i, where[k], readings[k].value, options);
+    return sum;
+  });
+  return normaliseLogs(logs);
+}
+
+export function normaliseLogs(logs: number[]): number[] {
+  const top = Math.max(...logs);
+  if (!Number.isFinite(top)) return logs.map(() => 1 / logs.length);
+  const weights = logs.map((l) => Math.exp(l - top));
+  const total = weights.reduce((a, b) => a + b, 0);
+  return weights.map((w) => w / total);
+}
+
+/** Shannon entropy in bits. */
+export function entropyBits(probabilities: number[]): number {
+  let h = 0;
+  for (const p of probabilities) if (p > 0) h -= p * Math.log2(p);
+  return h;
+}
