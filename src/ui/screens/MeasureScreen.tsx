@@ -1,0 +1,73 @@
+import React from 'react';
+import { Box, Text, useInput } from 'ink';
+import { Frame } from '../components/frame/Frame.js';
+import { TextField } from '../components/text-field/TextField.js';
+import type { Check } from '../components/text-field/use-text-field.js';
+import { Tinted } from '../theme/Tinted.js';
+import type { WalkStep } from '../../engine/step-view.js';
+import type { ExpectedBand } from '../../engine/outcome.js';
+
+interface Props {
+  width: number;
+  title: string;
+  stageMap?: React.ReactNode;
+  text: string;
+  testPoint?: WalkStep['testPoint'];
+  condition?: WalkStep['condition'];
+  band?: ExpectedBand;
+  format: (value: number, unit: string) => string;
+  /** Parses what was typed as a reading of this quantity; its hint names the accepted forms. */
+  check: (text: string) => Check<number>;
+  isActive?: boolean;
+  onReading: (value: number, text: string) => void;
+  onSkip: () => void;
+  onBack: () => void;
+}
+
+/** One measurement: the set-up, where the probes go, the expected band, and the reading. */
+export function MeasureScreen({ width, title, stageMap, text, testPoint, condition, band, format, check, isActive = true, onReading, onSkip, onBack }: Props) {
+  useInput(
+    (_input, key) => {
+      if (key.tab) onSkip();
+    },
+    { isActive },
+  );
+  const unit = band?.unit ?? (testPoint?.quantity === 'resistance' ? 'Ω' : 'V');
+  return (
+    <Frame
+      title={title}
+      width={width}
+      hints={[{ key: 'Enter', does: 'record reading' }, { key: 'Esc', does: 'back' }, { key: 'Tab', does: 'cannot measure, skip' }, { key: 'Ctrl-C', does: 'quit (saved)' }]}
+    >
+      {stageMap}
+      <Box marginTop={stageMap ? 1 : 0} flexDirection="column">
+        <Text bold>
+          MEASURE {testPoint ? `${testPoint.id} · ${testPoint.label}` : ''}
+        </Text>
+        <Text>{text}</Text>
+        {condition ? (
+          <Text>
+            <Tinted tone="quiet">Set-up: </Tinted>
+            {condition.label}
+            {condition.powered ? ' (powered)' : ' (power off)'}
+          </Text>
+        ) : null}
+        {testPoint ? (
+          <Text>
+            <Tinted tone="quiet">Probes: </Tinted>
+            {testPoint.probe}
+          </Text>
+        ) : null}
+        <Text>
+          <Tinted tone="quiet">Expect: </Tinted>
+          {band
+            ? `${format(band.min, band.unit)} to ${format(band.max, band.unit)} (nominal ${format(band.nominal, band.unit)})`
+            : 'no expected value for this board here'}
+        </Text>
+      </Box>
+      <Box marginTop={1}>
+        <TextField label={`Reading (${unit}):`} placeholder={unit === 'V' ? 'e.g. 4.2 or 420mV' : 'e.g. 4k7 or 120'} isActive={isActive} check={check} onSubmit={onReading} onCancel={onBack} />
+      </Box>
+    </Frame>
+  );
+}

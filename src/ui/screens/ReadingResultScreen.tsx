@@ -1,0 +1,62 @@
+import React from 'react';
+import { Box, Text, useInput } from 'ink';
+import { Frame } from '../components/frame/Frame.js';
+import { BandGauge, VERDICT_WORDS } from '../components/band-gauge/BandGauge.js';
+import { verdictOf } from '../components/band-gauge/gauge-layout.js';
+import { Tinted } from '../theme/Tinted.js';
+import type { ExpectedBand } from '../../engine/outcome.js';
+
+export interface ReadingResult {
+  testPoint: string;
+  label: string;
+  value: number;
+  band: ExpectedBand;
+  /** The engine's outcome word: in-band, low, high, stuck-at-rail, near-zero. */
+  outcome: string;
+}
+
+interface Props {
+  width: number;
+  title: string;
+  stageMap?: React.ReactNode;
+  result: ReadingResult;
+  format: (value: number, unit: string) => string;
+  isActive?: boolean;
+  onContinue: () => void;
+}
+
+const OUTCOME_WORDS: Record<string, string> = {
+  'in-band': 'inside the healthy band',
+  low: 'below the healthy band',
+  high: 'above the healthy band',
+  'stuck-at-rail': 'stuck near a supply rail',
+  'near-zero': 'next to nothing',
+};
+
+/** Where the reading fell against its band, before the walk moves on. */
+export function ReadingResultScreen({ width, title, stageMap, result, format, isActive = true, onContinue }: Props) {
+  useInput(
+    (_input, key) => {
+      if (key.return) onContinue();
+    },
+    { isActive },
+  );
+  const verdict = verdictOf(result.band, result.value);
+  return (
+    <Frame title={title} width={width} hints={[{ key: 'Enter', does: 'next step' }, { key: 'Ctrl-C', does: 'quit (saved)' }]}>
+      {stageMap}
+      <Box marginTop={stageMap ? 1 : 0} flexDirection="column">
+        <Text bold>
+          {result.testPoint} · {result.label}: {format(result.value, result.band.unit)}{' '}
+          <Tinted tone={verdict === 'in' ? 'good' : 'bad'} bold>
+            {VERDICT_WORDS[verdict]}
+          </Tinted>
+        </Text>
+        <Text>The reading is {OUTCOME_WORDS[result.outcome] ?? result.outcome}. Saved.</Text>
+        <Box marginTop={1}>
+          <BandGauge band={result.band} reading={result.value} width={width} format={(v) => format(v, result.band.unit)} />
+        </Box>
+      </Box>
+    </Frame>
+  );
+}
