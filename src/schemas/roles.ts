@@ -89,6 +89,19 @@ export const CONDITION_ROLES = {
   'makeup-min': 'powered, makeup gain at minimum',
 } as const;
 
+/** What a meter measures at each test-point role; a role may only map to a test point of that quantity. */
+export const TEST_POINT_ROLE_QUANTITY: Record<keyof typeof TEST_POINT_ROLES, 'voltage' | 'resistance'> = {
+  ...(Object.fromEntries(Object.keys(TEST_POINT_ROLES).map((k) => [k, 'voltage'])) as Record<keyof typeof TEST_POINT_ROLES, 'voltage'>),
+  'pos-rail-resistance': 'resistance',
+  'neg-rail-resistance': 'resistance',
+};
+
+/** Whether each condition role is a powered one; a role may only map to a condition that agrees. */
+export const CONDITION_ROLE_POWERED: Record<keyof typeof CONDITION_ROLES, boolean> = {
+  ...(Object.fromEntries(Object.keys(CONDITION_ROLES).map((k) => [k, true])) as Record<keyof typeof CONDITION_ROLES, true>),
+  unpowered: false,
+};
+
 export type StageRole = keyof typeof STAGE_ROLES;
 export type TestPointRole = keyof typeof TEST_POINT_ROLES;
 export type PartRole = keyof typeof PART_ROLES;

@@ -1,0 +1,11 @@
+export { loadBoard, validateBoard, checkBoardFile } from './validate.js';
+export { DEMO_BOARD_FILE, bundledBoardFiles } from './bundled.js';
+export { partValue, partTolerance, preparedPart, preparedParts, modelNameFor, resolveModel, resolveOpAmp, type PreparedPart } from './values.js';
+export { withSubstitutions } from './substitutions.js';
+export { buildCircuit, railSourceName, SIGNAL_SOURCE, SIGNAL_RESISTOR, SIGNAL_NODE, type BuildOptions, type BuiltCircuit } from './build-circuit.js';
+export { measureAll, readVoltage, readResistance, type MeasureOptions } from './measure.js';
+export { DEFAULT_OHMMETER, OPEN_CIRCUIT_OHMS, METER_NODE, METER_SOURCE, METER_RESISTOR, ohmmeterReading, type OhmmeterModel } from './ohmmeter.js';
+export { findCondition, findTestPoint, findPart, roleTestPoint, roleParts, roleCondition, roleStage, testPointsFor, stagesOf } from './lookup.js';
+export { neighbourPins } from './neighbours.js';
+export { FIXED_PINS, OPAMP_PACKAGES, DIP_PIN_COUNT, requiredPins, switchPinsUsed, type AmplifierPins, type OpAmpPackage } from './pins.js';
+export { formatPath } from './shape-problems.js';
