@@ -37,7 +37,7 @@ export interface Hypothesis {
   fault: string;
   /** Relative prior weight (normalised by the ranking). */
   prior: number;
-  /** Predicted reading per observable, same order; NaN where the solver could not settle. */
+  /** Predicted reading per observable, same order; NaN where the solver could not settle, Infinity for an open circuit. */
   predictions: number[];
   /** Half-width of this hypothesis's own band per observable, when it was computed; else estimated. */
   halfWidths?: number[];
@@ -64,10 +64,9 @@ export const observableKey = (testPoint: string, condition: string) => `${condit
  * little, so it is taken against at least 1 V (or 1 Ω), and capped at 30 % so a band around a few
  * millivolts of offset does not swallow a rail.
  */
-export function modelHalfWidth(obs: Observable, h: Hypothesis, index: number): number {
+export function modelHalfWidth(obs: Observable, h: Hypothesis, index: number, prediction: number): number {
   const own = h.halfWidths?.[index];
   if (own !== undefined && Number.isFinite(own)) return own;
-  const prediction = h.predictions[index];
   if (h.id === NO_FAULT) return obs.halfWidth;
   const relative = Math.min(obs.halfWidth / Math.max(Math.abs(obs.nominal), 1), 0.3);
   return Math.max(obs.halfWidth, relative * Math.abs(prediction));
@@ -98,11 +97,14 @@ export interface Spread {
   sigma: number;
 }
 
+/** A hypothesis's reach and spread at one observable; undefined where it predicts nothing (NaN). */
 export function spreadOf(obs: Observable, h: Hypothesis, index: number, meter: MeterSpec): Spread | undefined {
-  const prediction = h.predictions[index];
-  if (!Number.isFinite(prediction)) return undefined;
-  const model = halfInDomain(obs, prediction, modelHalfWidth(obs, h, index), meter);
-  const reading = halfInDomain(obs, prediction, meterAccuracy(obs.unit === 'Ω' ? clampOhms(prediction, meter) : prediction, obs.unit, meter), meter);
+  const raw = h.predictions[index];
+  if (Number.isNaN(raw)) return undefined;
+  // An open circuit predicts Infinity ohms: the meter shows OL, a reading like any other.
+  const prediction = obs.unit === 'Ω' ? clampOhms(raw, meter) : raw;
+  const model = halfInDomain(obs, prediction, modelHalfWidth(obs, h, index, prediction), meter);
+  const reading = halfInDomain(obs, prediction, meterAccuracy(prediction, obs.unit, meter), meter);
   return {
     centre: toDomain(obs, prediction, meter),
     reach: model + reading,

@@ -1,0 +1,122 @@
+import type { Board } from '../schemas/board.js';
+import { buildCircuit, measureAll, testPointsFor, withSubstitutions } from '../board/index.js';
+import { solveDC, type DcSolution } from '../circuit/index.js';
+import { expectBands, type Band } from '../circuit/analysis/index.js';
+import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
+import { applyFault } from './apply-fault.js';
+import { DEFAULT_NO_FAULT_PRIOR } from './fault-modes.js';
+import type { Fault } from './fault.js';
+import { faultsFor } from './faults-for.js';
+import { NO_FAULT, type FaultDictionary, type Hypothesis, type Observable } from './dictionary-model.js';
+import { DEFAULT_METER } from './meter.js';
+
+export interface DictionaryOptions {
+  /** Conditions to predict; every condition of the board when absent. */
+  conditions?: string[];
+  /** Parts replaced before anything else (designator → value), as the person has the board. */
+  substitutions?: Record<string, number | string>;
+  /** Candidate faults; faultsFor(board) when absent. */
+  faults?: Fault[];
+  /** Share of the prior for "no fault"; default 5 %. */
+  noFaultPrior?: number;
+  /**
+   * Healthy bands per test point and condition. Default: worst-case bands from expectBands with no
+   * Monte Carlo (the band edges are what the spread estimate needs; the 99 % interval is not).
+   */
+  bands?: Band[];
+}
+
+export interface BuiltDictionary extends FaultDictionary {
+  /** The board the predictions were made on (substitutions applied). */
+  board: Board;
+  /** faults[i] is hypotheses[i + 1]. */
+  faults: Fault[];
+  /** Per hypothesis, the conditions under which the solver could not settle the faulty circuit. */
+  unsettled: Map<string, string[]>;
+}
+
+/**
+ * The fault dictionary (simulation before test; Bandler & Salama, Proc. IEEE 73(8), 1985): for the
+ * healthy board and every candidate single fault, the reading a meter would show at every test
+ * point under every condition in play. Each faulty board is solved warm-started from the healthy
+ * solution of the same condition. A fault whose circuit does not settle stays in, predicting NaN
+ * there ("unpredictable"), so the ranking neither drops nor favours it.
+ * Results are cached per board content, substitutions and conditions.
+ */
+export function buildDictionary(board: Board, options: DictionaryOptions = {}): BuiltDictionary {
+  const subject = options.substitutions && Object.keys(options.substitutions).length > 0 ? withSubstitutions(board, options.substitutions) : board;
+  const key = cacheKey(subject, options);
+  const cached = key === undefined ? undefined : cache.get(key);
+  if (cached) return cached;
+  const built = build(subject, options);
+  if (key !== undefined) {
+    cache.set(key, built);
+    if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
+  }
+  return built;
+}
+
+const CACHE_SIZE = 8;
+const cache = new Map<string, BuiltDictionary>();
+
+/** Only the default fault list and bands are cached: those are the ones derived from the board alone. */
+function cacheKey(board: Board, options: DictionaryOptions): string | undefined {
+  if (options.faults || options.bands) return undefined;
+  return JSON.stringify([board, options.conditions ?? null, options.noFaultPrior ?? null]);
+}
+
+function build(board: Board, options: DictionaryOptions): BuiltDictionary {
+  const conditions = options.conditions ?? board.conditions.map((c) => c.id);
+  const faults = options.faults ?? faultsFor(board);
+  const bands = options.bands ?? conditions.flatMap((c) => expectBands(board, { condition: c, samples: 0 }));
+  const bandOf = new Map(bands.map((b) => [`${b.condition}:${b.id}`, b]));
+  const span = Math.max(...board.rails.map((r) => Math.abs(r.volts))) + 1;
+
+  const observables: Observable[] = [];
+  const nominal: number[] = [];
+  const warm = new Map<string, DcSolution | undefined>();
+  for (const condition of conditions) {
+    const readings = measureAll(board, condition);
+    warm.set(condition, healthySolution(board, condition));
+    for (const tp of testPointsFor(board, condition)) {
+      const band = bandOf.get(`${condition}:${tp.id}`);
+      const value = readings[tp.id];
+      const unit = tp.quantity === 'voltage' ? 'V' : 'Ω';
+      const halfWidth = band && Number.isFinite(band.max - band.min) ? (band.max - band.min) / 2 : 0;
+      observables.push({ testPoint: tp.id, condition, unit, access: tp.access, nominal: value, halfWidth, span: unit === 'V' ? span : DEFAULT_METER.maxOhms });
+      nominal.push(value);
+    }
+  }
+
+  const unsettled = new Map<string, string[]>();
+  const hypotheses: Hypothesis[] = [{ id: NO_FAULT, part: NO_FAULT, mode: NO_FAULT, fault: 'no fault', prior: 0, predictions: nominal }];
+  for (const fault of faults) {
+    const faulty = applyFault(board, fault);
+    const predictions: number[] = [];
+    for (const condition of conditions) {
+      let readings: Record<string, number> | undefined;
+      try {
+        readings = measureAll(faulty, condition, { initial: warm.get(condition) });
+      } catch (error) {
+        if (!(error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError)) throw error;
+        unsettled.set(fault.id, [...(unsettled.get(fault.id) ?? []), condition]);
+      }
+      for (const tp of testPointsFor(board, condition)) predictions.push(readings ? readings[tp.id] : NaN);
+    }
+    hypotheses.push({ id: fault.id, part: fault.part, mode: fault.mode, fault: fault.fault, prior: fault.prior, predictions });
+  }
+
+  // Priors: faults share 1 − P(no fault) in proportion to their weights.
+  const noFault = options.noFaultPrior ?? DEFAULT_NO_FAULT_PRIOR;
+  const weight = faults.reduce((a, f) => a + f.prior, 0);
+  hypotheses[0].prior = faults.length === 0 ? 1 : noFault;
+  for (let i = 1; i < hypotheses.length; i++) hypotheses[i].prior = weight > 0 ? ((1 - noFault) * hypotheses[i].prior) / weight : 0;
+
+  return { board, observables, hypotheses, faults, unsettled };
+}
+
+/** The healthy operating point of a powered condition, to start each faulty solve from. */
+function healthySolution(board: Board, condition: string): DcSolution | undefined {
+  if (!board.conditions.find((c) => c.id === condition)?.powered) return undefined;
+  return solveDC(buildCircuit(board, condition).circuit);
+}

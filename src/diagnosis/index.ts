@@ -1,0 +1,16 @@
+export { faultsFor } from './faults-for.js';
+export { applyFault, REVERSED_ELECTROLYTIC_OHMS } from './apply-fault.js';
+export { OPEN_OHMS, SHORT_OHMS } from './board-edits.js';
+export { buildDictionary, type DictionaryOptions, type BuiltDictionary } from './dictionary.js';
+export { rankSuspects, type RankOptions } from './rank-suspects.js';
+export { RankResultSchema, SuspectSchema, SuspectGroupSchema, NextProbeSchema, type RankResult, type Suspect, type SuspectGroup } from './rank-result.js';
+export { FAULT_MODES, DEFAULT_NO_FAULT_PRIOR, modeWeight, type FaultMode, type FaultModeId } from './fault-modes.js';
+export type { Fault } from './fault.js';
+export { NO_FAULT, ACCESS_RANK, observableKey, type FaultDictionary, type Hypothesis, type Observable, type Reading, type Access } from './dictionary-model.js';
+export { posterior, entropyBits, logLikelihood } from './posterior.js';
+export { nextProbe, expectedEntropyAfter, type NextProbe } from './next-probe.js';
+export { ambiguityGroups, distinguishable } from './ambiguity.js';
+export { DEFAULT_METER, meterAccuracy, type MeterSpec } from './meter.js';
+export { colourMisreads, type Misread } from './colour-misreads.js';
+export { legOrderOf, pinLanding, type LegOrder } from './transistor-pinouts.js';
+export { showReading } from './why.js';

@@ -1,0 +1,65 @@
+import { formatValue } from '../units/index.js';
+import { NO_FAULT, spreadOf, toDomain, type FaultDictionary, type Reading } from './dictionary-model.js';
+import { DEFAULT_METER, type MeterSpec } from './meter.js';
+
+/** A reading as a person sees it on the meter: volts to 3 figures, ohms, or OL past the top range. */
+export function showReading(value: number, unit: 'V' | 'Ω', meter: MeterSpec = DEFAULT_METER): string {
+  if (unit === 'Ω' && !(value < meter.maxOhms)) return 'OL (open)';
+  return formatValue(value, unit, 3);
+}
+
+/**
+ * The plain reason behind one hypothesis's place in the ranking, with numbers: the readings that
+ * bear on it most — where its prediction differs most from the healthy value, or from what was read.
+ * E.g. "TP6 would read 11.3 V with R21 open (healthy 5.90 V); you read 11.2 V".
+ */
+export function explain(dict: FaultDictionary, h: number, readings: Reading[], where: number[], meter: MeterSpec = DEFAULT_METER, twins: string[] = []): string {
+  const hyp = dict.hypotheses[h];
+  const conditions = new Set(readings.map((r) => r.condition));
+  const label = (i: number) => {
+    const o = dict.observables[i];
+    return conditions.size > 1 ? `${o.testPoint} (${o.condition})` : o.testPoint;
+  };
+  const healthy = dict.hypotheses[0];
+  const scored = readings.map((r, k) => {
+    const i = where[k];
+    const obs = dict.observables[i];
+    const mine = spreadOf(obs, hyp, i, meter);
+    const ok = spreadOf(obs, healthy, i, meter);
+    const read = toDomain(obs, r.value, meter);
+    // How far this hypothesis's prediction sits from health, and how well it meets the reading.
+    const telling = mine && ok ? Math.abs(mine.centre - ok.centre) / (mine.reach + ok.reach) : 0;
+    const miss = mine ? Math.abs(read - mine.centre) / mine.reach : 0;
+    return { k, i, obs, mine, telling, miss };
+  });
+  const you = (k: number) => `you read ${showReading(readings[k].value, dict.observables[where[k]].unit, meter)}`;
+
+  let text: string;
+  if (hyp.id === NO_FAULT) {
+    const worst = [...scored].sort((a, b) => b.miss - a.miss)[0];
+    if (!worst) text = 'no readings yet';
+    else if (worst.miss <= 1) text = `every reading is within its healthy band (e.g. ${label(worst.i)} should read ${band(worst.obs, meter)}; ${you(worst.k)})`;
+    else text = `${label(worst.i)} should read ${band(worst.obs, meter)} on a healthy board; ${you(worst.k)}`;
+  } else {
+    const unsure = scored.filter((s) => !s.mine);
+    const known = scored.filter((s) => s.mine).sort((a, b) => b.telling + b.miss - (a.telling + a.miss));
+    const clauses = known.slice(0, 2).map((s) => {
+      const predicted = showReading(hyp.predictions[s.i], s.obs.unit, meter);
+      const base = `${label(s.i)} would read ${predicted} with ${hyp.part} ${hyp.fault} (healthy ${showReading(s.obs.nominal, s.obs.unit, meter)}); ${you(s.k)}`;
+      return base;
+    });
+    if (unsure.length > 0) {
+      const where = [...new Set(unsure.map((s) => s.obs.condition))].join(', ');
+      clauses.push(`the circuit with ${hyp.part} ${hyp.fault} cannot be solved in ${where}, so those readings neither confirm nor rule it out`);
+    }
+    text = clauses.length > 0 ? clauses.join('; ') : `${hyp.part} ${hyp.fault}: no reading bears on it yet`;
+  }
+  if (twins.length > 0) text += ` — no test point tells it from ${twins.slice(0, 3).join(', ')}${twins.length > 3 ? ` and ${twins.length - 3} more` : ''}`;
+  return text;
+}
+
+function band(obs: FaultDictionary['observables'][number], meter: MeterSpec): string {
+  if (obs.unit === 'Ω' && !(obs.nominal < meter.maxOhms)) return 'OL (open)';
+  if (obs.halfWidth <= 0) return showReading(obs.nominal, obs.unit, meter);
+  return `${showReading(obs.nominal, obs.unit, meter)} (${showReading(obs.nominal - obs.halfWidth, obs.unit, meter)} to ${showReading(obs.nominal + obs.halfWidth, obs.unit, meter)})`;
+}
