@@ -1,0 +1,51 @@
+import { roleCondition, roleParts, roleTestPoint } from '../board/index.js';
+import { expectBands, type Band } from '../circuit/analysis/index.js';
+import type { Board, Condition, Part, TestPoint } from '../schemas/board.js';
+import type { ConditionRole, PartRole, TestPointRole } from '../schemas/roles.js';
+import type { ExpectedBand } from './outcome.js';
+
+export type Substitutions = Record<string, number | string>;
+
+/**
+ * What a walk needs to know about its board: the parts, test points and conditions behind each
+ * role, and the expected band at a test point for the current part values (memoised, because the
+ * machine's guards and the step view ask for the same band more than once).
+ */
+export interface BoardView {
+  board: Board;
+  testPoint(role: TestPointRole): TestPoint | undefined;
+  condition(role: ConditionRole): Condition | undefined;
+  parts(role: PartRole): Part[];
+  band(testPoint: string, condition: string, substitutions: Substitutions): ExpectedBand | undefined;
+  railVolts: number[];
+}
+
+export interface BandOptions {
+  /** Monte Carlo samples for the bands (the analysis module's default when absent). */
+  samples?: number;
+  seed?: number;
+}
+
+export function createBoardView(board: Board, options: BandOptions = {}): BoardView {
+  const memo = new Map<string, Band[]>();
+  const bandsFor = (condition: string, substitutions: Substitutions): Band[] => {
+    const key = `${condition}\u0000${JSON.stringify(Object.entries(substitutions).sort(([a], [b]) => a.localeCompare(b)))}`;
+    let bands = memo.get(key);
+    if (!bands) {
+      bands = expectBands(board, { condition, substitutions, samples: options.samples, seed: options.seed });
+      memo.set(key, bands);
+    }
+    return bands;
+  };
+  return {
+    board,
+    testPoint: (role) => roleTestPoint(board, role),
+    condition: (role) => roleCondition(board, role),
+    parts: (role) => roleParts(board, role),
+    band: (testPoint, condition, substitutions) => {
+      const found = bandsFor(condition, substitutions).find((b) => b.id === testPoint && b.condition === condition);
+      return found && { nominal: found.nominal, min: found.min, max: found.max, unit: found.unit };
+    },
+    railVolts: board.rails.map((r) => r.volts),
+  };
+}

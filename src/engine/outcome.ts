@@ -1,0 +1,48 @@
+import type { MeasureNode, Outcome } from '../schemas/tree.js';
+
+/** The expected reading at one test point under one condition, from the board's part values. */
+export interface ExpectedBand {
+  nominal: number;
+  min: number;
+  max: number;
+  unit: 'V' | 'Ω';
+}
+
+/**
+ * How close to a rail a voltage must sit to count as "stuck at the rail": an op-amp on ±12 V
+ * saturates about 1.5 V short of each rail (TL072 datasheet headroom, see REFERENCES.md), so a
+ * window of 2.5 V catches a saturated output and a rail that leaked through, with room for meters.
+ */
+export const RAIL_WINDOW_V = 2.5;
+/** Below this a voltage counts as "nothing there": well under a diode drop, above meter noise. */
+export const NEAR_ZERO_V = 0.05;
+/** Below this a resistance is a short: a solder bridge or a shorted part (common practice). */
+export const NEAR_ZERO_OHMS = 1;
+
+/**
+ * Sorts a reading against its band. In-band wins over everything, so an op-amp output that is
+ * meant to sit near 0 V is not called "near-zero"; then a rail, then nothing, then low/high.
+ */
+export function classifyReading(value: number, band: ExpectedBand, railVolts: number[]): Outcome {
+  if (value >= band.min && value <= band.max) return 'in-band';
+  if (band.unit === 'V') {
+    if (railVolts.some((r) => Math.abs(value - r) <= RAIL_WINDOW_V && Math.abs(r) > RAIL_WINDOW_V)) return 'stuck-at-rail';
+    if (Math.abs(value) < NEAR_ZERO_V) return 'near-zero';
+  } else if (value < NEAR_ZERO_OHMS) {
+    return 'near-zero';
+  }
+  return value < band.min ? 'low' : 'high';
+}
+
+/**
+ * The branch a tree takes for an outcome: its own branch when the tree has one, else the plain
+ * direction (a rail or a zero is also "low" or "high"), else the default.
+ */
+export function branchFor(branches: MeasureNode['branches'], outcome: Outcome, value: number, band: ExpectedBand): keyof MeasureNode['branches'] {
+  if (branches[outcome] !== undefined) return outcome;
+  if (outcome === 'stuck-at-rail' || outcome === 'near-zero') {
+    const direction = value < band.min ? 'low' : 'high';
+    if (branches[direction] !== undefined) return direction;
+  }
+  return 'default';
+}

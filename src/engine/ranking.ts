@@ -1,0 +1,37 @@
+import { withSubstitutions } from '../board/index.js';
+import { rankSuspects } from '../diagnosis/index.js';
+import { UserInputError } from '../errors.js';
+import type { WalkContext } from './walk-context.js';
+import type { WalkSetup } from './walk-machine.js';
+
+type RankResult = ReturnType<typeof rankSuspects>;
+
+export interface Ranking {
+  suspects?: RankResult['suspects'];
+  next?: RankResult['next'];
+  /** Why there is no ranking, when there is none. */
+  note?: string;
+}
+
+/** Every reading of the walk so far, in the ranking's terms (board test point and condition ids). */
+export function walkReadings(context: WalkContext): Array<{ testPoint: string; condition: string; value: number }> {
+  return [
+    ...Object.values(context.readings).map((r) => ({ testPoint: r.testPoint, condition: r.condition, value: r.value })),
+    ...context.extraReadings,
+  ];
+}
+
+/** The ranked suspects for the readings so far, on the board as the person has it (substitutions applied). */
+export function rankFor(walk: WalkSetup, context: WalkContext): Ranking {
+  const readings = walkReadings(context);
+  if (!readings.length) return { note: 'no readings yet, so no ranking of suspects' };
+  try {
+    const board = Object.keys(context.substitutions).length ? withSubstitutions(walk.view.board, context.substitutions) : walk.view.board;
+    const { suspects, next } = rankSuspects(board, readings);
+    return { suspects, next };
+  } catch (error) {
+    // A ranking is advice beside the tree's conclusion; if it cannot be computed the walk still stands.
+    if (error instanceof UserInputError) return { note: `no ranking: ${error.message.split('\n')[0]}` };
+    throw error;
+  }
+}

@@ -1,0 +1,193 @@
+import { UserInputError } from '../errors.js';
+import type { Hazard, Wording } from '../schemas/tree.js';
+import { HAZARDS } from '../schemas/tree.js';
+import { bandsFor, formatValue, parseReading, parseValue } from '../units/index.js';
+import type { ExpectedBand } from './outcome.js';
+import { rankFor, type Ranking } from './ranking.js';
+import { SAFETY_HOLD, type WalkContext, type WalkEvent } from './walk-context.js';
+import { backTarget, type WalkSetup } from './walk-machine.js';
+
+export interface PartView {
+  ref: string;
+  where: string;
+  label?: string;
+  orientation?: string;
+  value?: string;
+  /** Colour bands a resistor of that value shows (IEC 60062), for value checks. */
+  bands?: string[];
+}
+
+/**
+ * One step of a walk as the UI (or a transcript) shows it: the wording in both registers, and
+ * everything computed for it on this board. Fields apply to the kinds named beside them.
+ */
+export interface WalkStep {
+  /** Tree node id, or "safety_hold" when the runtime guard stopped the walk. */
+  node: string;
+  kind: 'caution' | 'setup' | 'measure' | 'observe' | 'inspect' | 'conclude' | 'blocked';
+  say: Wording;
+  /** Steps passed over since the previous step the person saw, with the reason (e.g. the board lacks the role). */
+  skippedOnTheWay: Array<{ node: string; reason: string }>;
+  canGoBack: boolean;
+  canSkip: boolean;
+  /** caution: what it covers, with each hazard in words. */
+  covers?: Array<{ hazard: Hazard; text: string }>;
+  /** setup, measure: the board's condition. */
+  condition?: { id: string; label: string; instructions: string; powered: boolean };
+  /** measure: where the probes go and the band expected for the current part values. */
+  testPoint?: { id: string; label: string; probe: string; quantity: 'voltage' | 'resistance' };
+  expected?: ExpectedBand & { text: string };
+  /** measure (when the tree asks for it) and conclude: the ranking's next best probe. */
+  suggestion?: Ranking['next'];
+  /** observe, inspect: the answers accepted by `user.answer`. */
+  choices?: Array<{ id: string; label: string; customerLabel?: string }>;
+  instrument?: 'senses' | 'multimeter' | 'oscilloscope';
+  /** inspect: what to look at and the parts behind the role. */
+  look?: string;
+  parts?: PartView[];
+  /** conclude: what was found, the parts behind the roles, the ranked suspects when the ranking is available. */
+  conclusion?: { title: string; parts: PartView[]; suspects?: Ranking['suspects']; rankingNote?: string };
+  /** blocked: the step refused and the hazards not acknowledged. */
+  blocked?: { node: string; missing: Array<{ hazard: Hazard; text: string }> };
+}
+
+export function describeBand(band: ExpectedBand): string {
+  return `${formatValue(band.min, band.unit)} to ${formatValue(band.max, band.unit)} (nominal ${formatValue(band.nominal, band.unit)})`;
+}
+
+function partView(walk: WalkSetup, ref: string, context: WalkContext): PartView {
+  const part = walk.view.board.parts.find((p) => p.ref === ref)!;
+  const raw = context.substitutions[ref] ?? part.value;
+  const view: PartView = { ref, where: part.where, label: part.label, orientation: part.orientation };
+  if (raw !== undefined) {
+    view.value = String(raw);
+    if (part.kind === 'resistor') {
+      const ohms = typeof raw === 'number' ? raw : parseValue(raw, { unit: 'Ω' }).value;
+      view.bands = bandsFor(ohms, part.tolerance ?? 0.01);
+    }
+  }
+  return view;
+}
+
+/** Skipped steps between the last step seen and the current one, read off the trail. */
+function skippedTail(context: WalkContext, current: string): Array<{ node: string; reason: string }> {
+  const trail = context.trail.at(-1) === current ? context.trail.slice(0, -1) : context.trail;
+  const out: Array<{ node: string; reason: string }> = [];
+  for (let i = trail.length - 1; i >= 0 && context.skipped[trail[i]] !== undefined; i--) out.unshift({ node: trail[i], reason: context.skipped[trail[i]] });
+  return out;
+}
+
+/** The current step of a walk, from the machine's snapshot. Pure: the same snapshot gives the same step. */
+export function currentStep(walk: WalkSetup, snapshot: { value: unknown; context: WalkContext }): WalkStep {
+  const { context } = snapshot;
+  const id = String(snapshot.value);
+  const base = { node: id, skippedOnTheWay: skippedTail(context, id), canGoBack: backTarget(context) !== undefined, canSkip: false };
+  const hazardText = (h: Hazard) => ({ hazard: h, text: HAZARDS[h] });
+  if (id === SAFETY_HOLD) {
+    const blocked = context.blocked ?? { node: '?', missing: [] };
+    const missing = blocked.missing.map((h) => HAZARDS[h]).join('; ');
+    return {
+      ...base,
+      kind: 'blocked',
+      say: {
+        technician: `Stopped before "${blocked.node}": it needs power, and its caution was not acknowledged in this session (${missing}). Go back and acknowledge it.`,
+        customer: `Let's stop here: the next check needs the module switched on, and we have not gone through the safety notes for that yet. Go back one step.`,
+      },
+      blocked: { node: blocked.node, missing: blocked.missing.map(hazardText) },
+    };
+  }
+  const plan = walk.plans[id];
+  const node = plan.node;
+  const condition = plan.condition && { id: plan.condition.id, label: plan.condition.label, instructions: plan.condition.instructions, powered: plan.condition.powered };
+  switch (node.kind) {
+    case 'caution':
+      return { ...base, kind: 'caution', say: node.say, covers: node.covers.map(hazardText) };
+    case 'setup':
+      return { ...base, kind: 'setup', say: node.say, condition };
+    case 'measure': {
+      const tp = plan.testPoint!;
+      const band = walk.view.band(tp.id, plan.condition!.id, context.substitutions);
+      const step: WalkStep = {
+        ...base,
+        kind: 'measure',
+        say: node.say,
+        canSkip: true,
+        condition,
+        testPoint: { id: tp.id, label: tp.label, probe: tp.probe, quantity: tp.quantity },
+        expected: band && { ...band, text: describeBand(band) },
+      };
+      if (node.suggestProbe) step.suggestion = rankFor(walk, context).next;
+      return step;
+    }
+    case 'observe':
+      return {
+        ...base,
+        kind: 'observe',
+        say: node.say,
+        canSkip: node.alternative !== undefined,
+        instrument: node.instrument,
+        choices: Object.entries(node.choices).map(([cid, c]) => ({ id: cid, label: c.label, customerLabel: c.customerLabel })),
+      };
+    case 'inspect':
+      return {
+        ...base,
+        kind: 'inspect',
+        say: node.say,
+        canSkip: true,
+        look: node.look,
+        parts: plan.parts.map((p) => partView(walk, p.ref, context)),
+        choices: [
+          { id: 'ok', label: 'looks right', customerLabel: 'it looks like the picture' },
+          { id: 'fault', label: 'found a problem', customerLabel: 'something looks different' },
+        ],
+      };
+    case 'conclude': {
+      const ranking = rankFor(walk, context);
+      return {
+        ...base,
+        kind: 'conclude',
+        say: node.say,
+        suggestion: ranking.next,
+        conclusion: { title: node.title, parts: plan.parts.map((p) => partView(walk, p.ref, context)), suspects: ranking.suspects, rankingNote: ranking.note },
+      };
+    }
+  }
+}
+
+/**
+ * Turns what the person typed at a measure step into the machine's event. A typo is a
+ * UserInputError naming the test point and the accepted forms — never an outcome.
+ */
+export function readingEvent(step: WalkStep, text: string): WalkEvent {
+  if (step.kind !== 'measure' || !step.testPoint) {
+    throw new UserInputError({ code: 'walk.not-a-measurement', path: step.node, message: `step "${step.node}" does not take a reading`, accepted: 'a reading only at a measure step' });
+  }
+  const value = parseReading(text, step.testPoint.quantity, `reading at ${step.testPoint.id} (${step.node})`);
+  return { type: 'user.reading', value, text };
+}
+
+/** The answer event for an observe or inspect step; an unknown choice names the accepted ones. */
+export function answerEvent(step: WalkStep, choice: string): WalkEvent {
+  const ids = (step.choices ?? []).map((c) => c.id);
+  if (!ids.includes(choice)) {
+    throw new UserInputError({ code: 'walk.unknown-choice', path: step.node, message: `"${choice}" is not an answer to step "${step.node}"`, accepted: ids.join(', ') || 'no answer: this step takes none' });
+  }
+  return { type: 'user.answer', choice };
+}
+
+/** A part swapped on the board: the designator must exist and the value must parse as that part's kind. */
+export function substituteEvent(walk: WalkSetup, ref: string, value: string): WalkEvent {
+  const part = walk.view.board.parts.find((p) => p.ref.toUpperCase() === ref.trim().toUpperCase());
+  if (!part) {
+    throw new UserInputError({ code: 'walk.unknown-part', path: ref, message: `this board has no part "${ref}"`, accepted: 'a designator from the board, e.g. R12' });
+  }
+  const unit = { resistor: 'Ω', pot: 'Ω', capacitor: 'F', electrolytic: 'F', inductor: 'H' }[part.kind as string] as 'Ω' | 'F' | 'H' | undefined;
+  if (!unit) {
+    throw new UserInputError({ code: 'walk.not-substitutable', path: part.ref, message: `${part.ref} is a ${part.kind}; only resistors, pots, capacitors and inductors take a new value here`, accepted: 'a passive part' });
+  }
+  const parsed = parseValue(value, { unit, field: `new value of ${part.ref}` });
+  if (!(parsed.value > 0)) {
+    throw new UserInputError({ code: 'walk.impossible-value', path: part.ref, message: `${value} is not a possible value for ${part.ref}`, accepted: `a positive value in ${unit}` });
+  }
+  return { type: 'user.substitute', ref: part.ref, value: value.trim() };
+}

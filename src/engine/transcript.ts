@@ -1,0 +1,67 @@
+import type { Problem } from '../errors.js';
+import type { Wording } from '../schemas/tree.js';
+import { describeBand, currentStep, type WalkStep } from './step-view.js';
+import type { ExpectedBand } from './outcome.js';
+import type { WalkContext } from './walk-context.js';
+import type { WalkSetup } from './walk-machine.js';
+
+export interface TranscriptEntry {
+  node: string;
+  kind: WalkStep['kind'];
+  say: Wording;
+  /** Why the step was passed over, when it was. */
+  skipped?: string;
+  condition?: { id: string; label: string };
+  testPoint?: { id: string; label: string };
+  expected?: ExpectedBand & { text: string };
+  reading?: { text: string; value: number; outcome: string; branch: string };
+  answer?: { id: string; label: string };
+}
+
+/** A walk so far, for printing, saving with a case, or the UI's summary. */
+export interface Transcript {
+  tree: { id: string; symptom: string };
+  board: { id: string; name: string };
+  substitutions: Record<string, number | string>;
+  entries: TranscriptEntry[];
+  /** Where the walk stands: a conclusion, a step waiting for an answer, or the safety hold. */
+  current: WalkStep;
+  /** Set by walkFromAnswers when it could not go on: the step, and why. */
+  stopped?: { node: string; problem: Problem };
+}
+
+function answerLabel(walk: WalkSetup, node: string, id: string): string {
+  const n = walk.tree.nodes[node];
+  if (n?.kind === 'observe') return n.choices[id]?.label ?? id;
+  if (n?.kind === 'inspect') return id === 'ok' ? 'looks right' : 'found a problem';
+  return id === 'done' ? 'acknowledged' : id;
+}
+
+/** The steps met (current one excluded), each with its reading or answer, from the walk's context. */
+export function transcriptOf(walk: WalkSetup, snapshot: { value: unknown; context: WalkContext }): Transcript {
+  const { context } = snapshot;
+  const current = currentStep(walk, snapshot);
+  const past = context.trail.at(-1) === current.node ? context.trail.slice(0, -1) : context.trail;
+  const entries = past.map((id): TranscriptEntry => {
+    const plan = walk.plans[id];
+    const entry: TranscriptEntry = { node: id, kind: plan.node.kind, say: plan.node.say };
+    if (context.skipped[id] !== undefined) entry.skipped = context.skipped[id];
+    if (plan.condition) entry.condition = { id: plan.condition.id, label: plan.condition.label };
+    if (plan.testPoint) entry.testPoint = { id: plan.testPoint.id, label: plan.testPoint.label };
+    const r = context.readings[id];
+    if (r) {
+      entry.expected = { ...r.band, text: describeBand(r.band) };
+      entry.reading = { text: r.text, value: r.value, outcome: r.outcome, branch: r.branch };
+    }
+    const a = context.answers[id];
+    if (a !== undefined) entry.answer = { id: a, label: answerLabel(walk, id, a) };
+    return entry;
+  });
+  return {
+    tree: { id: walk.tree.id, symptom: walk.tree.symptom },
+    board: { id: walk.view.board.id, name: walk.view.board.name },
+    substitutions: context.substitutions,
+    entries,
+    current,
+  };
+}
