@@ -1,5 +1,6 @@
 import type { Board, Part } from '../schemas/board.js';
-import { neighbourPins, partValue } from '../board/index.js';
+import { neighbourPins } from '../board/neighbours.js';
+import { partValue } from '../board/values.js';
 import { OPAMP_PACKAGES } from '../board/pins.js';
 import { DEFAULT_TOLERANCE } from '../board/defaults.js';
 import { formatValue } from '../units/index.js';
