@@ -105,10 +105,16 @@ export function buildCircuit(board: Board, conditionId: string, options: BuildOp
 
   tieFloatingNodes(elements);
   return {
-    circuit: { title: `${board.name} — ${condition.label}`, elements, models: { ...modelsFor(board) } },
+    circuit: { title: `${board.name} — ${condition.label}`, elements, models: copyModels(modelsFor(board)) },
     partElements,
     netNode,
   };
+}
+
+function copyModels(models: Record<string, Model>): Record<string, Model> {
+  const out: Record<string, Model> = {};
+  for (const [k, m] of Object.entries(models)) out[k] = { ...m, params: { ...m.params } };
+  return out;
 }
 
 function addPart(

@@ -25,6 +25,8 @@ export interface PreparedPart {
  * derived by a substitution or a fault gets its own entry and old ones are collected.
  */
 const cache = new WeakMap<Board, Map<string, PreparedPart>>();
+/** Per part object too: a board derived by a fault edit keeps its untouched parts, and their parsing. */
+const partCache = new WeakMap<Part, { value?: number; tolerance?: number }>();
 
 /** Parses one part's value as its kind expects; throws UserInputError naming `field`. */
 export function parsePartValue(part: Part, field: string): { value?: number; tolerance?: number } {
@@ -40,8 +42,13 @@ export function preparedParts(board: Board): Map<string, PreparedPart> {
   if (prepared) return prepared;
   prepared = new Map();
   board.parts.forEach((part, index) => {
-    const { value, tolerance } = parsePartValue(part, `parts[${index}].value`);
-    prepared!.set(part.ref, { part, index, value, tolerance: part.tolerance ?? tolerance ?? DEFAULT_TOLERANCE[part.kind] });
+    let parsed = partCache.get(part);
+    if (!parsed) {
+      const { value, tolerance } = parsePartValue(part, `parts[${index}].value`);
+      parsed = { value, tolerance: part.tolerance ?? tolerance ?? DEFAULT_TOLERANCE[part.kind] };
+      partCache.set(part, parsed);
+    }
+    prepared!.set(part.ref, { part, index, ...parsed });
   });
   cache.set(board, prepared);
   return prepared;
