@@ -25,12 +25,18 @@ export interface Deviation {
   nominal: number;
   high: number;
   distribution: Distribution;
+  /**
+   * 'linear' (the default) interpolates the value; 'log' interpolates its logarithm, for spreads
+   * that are ratios of many times (a diode's saturation current across a forward-voltage spread).
+   */
+  scale?: 'linear' | 'log';
   /** Where the spread comes from, in words ("board tolerance 1 %", "2N3904 datasheet hFE 100–300"). */
   source: string;
 }
 
-/** The value at normalised deviation u: linear from low to nominal for u < 0, nominal to high for u > 0. */
-export function deviatedValue(d: Pick<Deviation, 'low' | 'nominal' | 'high'>, u: number): number {
+/** The value at normalised deviation u: from low to nominal for u < 0, nominal to high for u > 0. */
+export function deviatedValue(d: Pick<Deviation, 'low' | 'nominal' | 'high' | 'scale'>, u: number): number {
+  if (d.scale === 'log') return d.nominal * (u >= 0 ? d.high / d.nominal : d.nominal / d.low) ** u;
   return u >= 0 ? d.nominal + u * (d.high - d.nominal) : d.nominal + u * (d.nominal - d.low);
 }
 

@@ -97,5 +97,9 @@ export function percentile(sorted: ArrayLike<number>, p: number): number {
   const h = (sorted.length - 1) * (p / 100);
   const lo = Math.floor(h);
   const hi = Math.min(lo + 1, sorted.length - 1);
-  return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
+  const a = sorted[lo];
+  const b = sorted[hi];
+  // An open circuit reads Infinity; interpolating towards it would give NaN or Infinity·0.
+  if (a === b || !Number.isFinite(a) || !Number.isFinite(b)) return h - lo < 0.5 ? a : b;
+  return a + (h - lo) * (b - a);
 }

@@ -1,12 +1,126 @@
+import { resolve } from 'node:path';
 import type { Command } from '../command.js';
+import type { Io } from '../io.js';
+import { parseOptions } from '../args.js';
+import { UsageError } from '../../errors.js';
+import { DEMO_BOARD_FILE, loadBoard } from '../../board/index.js';
+import { expectReport, type Band } from '../../circuit/analysis/index.js';
+import { formatValue } from '../../units/index.js';
+import type { Board } from '../../schemas/board.js';
 
-// Placeholder until this command lands; it says so rather than pretending to work.
+const HELP = `Usage: voltwalk expect [--board FILE] [--condition NAME] [--set REF=VALUE]... [--samples N] [--seed N] [--json]
+
+The expected reading and its healthy band at every test point, under every operating condition of
+the board (or the one named), computed from the board's part values with the circuit solver.
+
+The band: nominal is a board built exactly to its part list; min–max are the worst-case limits over
+every part's tolerance and every transistor, diode and op-amp spread at once; "99 % of boards" is
+the 0.5–99.5 % interval of a seeded Monte Carlo run. A reading outside min–max means a fault.
+
+  --board FILE      board file (default: the bundled demo board)
+  --condition NAME  only this operating condition (its id, e.g. quiescent)
+  --set REF=VALUE   compute with a part replaced, e.g. --set R7=22k (repeatable)
+  --samples N       Monte Carlo boards (default 1000; 0 for worst case only)
+  --seed N          Monte Carlo seed (default 1)
+  --json            machine-readable output: {"testPoints": [{id, node, condition, nominal, min, max, unit, mcLow, mcHigh}]}
+                    (an open circuit, which a meter shows as overload, is null)
+
+Examples:
+  voltwalk expect --condition quiescent
+  voltwalk expect --set R7=22k --json
+`;
+
 export const command: Command = {
   name: 'expect',
-  summary: '',
-  help: 'voltwalk expect: not built yet.',
-  async run(_args, io) {
-    io.stderr('voltwalk expect: not built yet\n');
-    return 2;
+  summary: 'expected value and healthy band at every test point',
+  help: HELP,
+  async run(args: string[], io: Io): Promise<number> {
+    const { values, positionals } = parseOptions(
+      args,
+      {
+        board: { type: 'string' },
+        condition: { type: 'string' },
+        set: { type: 'string', multiple: true },
+        samples: { type: 'string' },
+        seed: { type: 'string' },
+        json: { type: 'boolean' },
+      },
+      true,
+    );
+    if (positionals.length > 0) throw new UsageError(`unexpected argument "${positionals[0]}"`);
+    const samples = wholeNumber(values.samples, '--samples', 1000, 0);
+    const seed = wholeNumber(values.seed, '--seed', 1, -(2 ** 31));
+    const substitutions = parseSets(values.set ?? []);
+    const board = loadBoard(values.board !== undefined ? resolve(io.cwd, values.board) : DEMO_BOARD_FILE);
+    const report = expectReport(board, { condition: values.condition, substitutions, samples, seed });
+    if (values.json) {
+      io.stdout(`${JSON.stringify({ board: board.id, samples, seed, substitutions, testPoints: report.bands.map(jsonBand) }, null, 2)}\n`);
+    } else {
+      io.stdout(table(board, report.bands, samples, seed, substitutions));
+      if (report.failures > 0) io.stderr(`voltwalk: ${report.failures} tolerance point(s) did not converge and were left out\n`);
+    }
+    return 0;
   },
 };
+
+function wholeNumber(text: string | undefined, option: string, fallback: number, min: number): number {
+  if (text === undefined) return fallback;
+  const n = Number(text);
+  if (!/^-?\d+$/.test(text.trim()) || !Number.isSafeInteger(n) || n < min) {
+    throw new UsageError(`${option} expects a whole number${min === 0 ? ' ≥ 0' : ''}, got "${text}"`);
+  }
+  return n;
+}
+
+function parseSets(sets: string[]): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const s of sets) {
+    const m = /^\s*([A-Za-z]{1,3}[0-9]{1,3})\s*=\s*(\S.*?)\s*$/.exec(s);
+    if (!m) throw new UsageError(`--set expects REF=VALUE such as R7=22k, got "${s}"`);
+    out[m[1].toUpperCase()] = m[2];
+  }
+  return out;
+}
+
+/** JSON has no Infinity: an open circuit (meter overload) is null. */
+const finite = (v: number | undefined) => (v === undefined ? undefined : Number.isFinite(v) ? v : null);
+
+function jsonBand(b: Band) {
+  return {
+    id: b.id,
+    node: b.node,
+    condition: b.condition,
+    nominal: finite(b.nominal),
+    min: finite(b.min),
+    max: finite(b.max),
+    unit: b.unit,
+    ...(b.mcLow !== undefined ? { mcLow: finite(b.mcLow), mcHigh: finite(b.mcHigh) } : {}),
+  };
+}
+
+const show = (v: number, unit: string) => (Number.isFinite(v) ? formatValue(v, unit) : 'open (OL)');
+
+function table(board: Board, bands: Band[], samples: number, seed: number, subs: Record<string, string>): string {
+  const lines: string[] = [`${board.name}: expected readings`];
+  const subText = Object.entries(subs).map(([r, v]) => `${r} = ${v}`);
+  if (subText.length) lines.push(`with ${subText.join(', ')}`);
+  lines.push(`Band = worst case over all part tolerances${samples > 0 ? `; "99 % of boards" from ${samples} Monte Carlo boards (seed ${seed})` : ''}.`);
+  const labels = new Map(board.testPoints.map((tp) => [tp.id, tp.label]));
+  for (const condition of board.conditions) {
+    const rows = bands.filter((b) => b.condition === condition.id);
+    if (rows.length === 0) continue;
+    lines.push('', `${condition.label} [${condition.id}]`);
+    const cells = rows.map((b) => [
+      b.id,
+      labels.get(b.id) ?? '',
+      show(b.nominal, b.unit),
+      `${show(b.min, b.unit)} … ${show(b.max, b.unit)}`,
+      b.mcLow !== undefined ? `${show(b.mcLow, b.unit)} … ${show(b.mcHigh!, b.unit)}` : '',
+    ]);
+    const head = ['TP', 'where', 'expect', 'healthy band', samples > 0 ? '99 % of boards' : ''];
+    const widths = head.map((h, i) => Math.max(h.length, ...cells.map((c) => c[i].length)));
+    const row = (c: string[]) => `  ${c.map((x, i) => (i === 2 ? x.padStart(widths[i]) : x.padEnd(widths[i]))).join('  ')}`.trimEnd();
+    lines.push(row(head), ...cells.map(row));
+  }
+  return `${lines.join('\n')}\n`;
+}

@@ -1,0 +1,175 @@
+import type { Board } from '../../schemas/board.js';
+import type { Circuit, Element } from '../netlist.js';
+import { solveDC, type DcSolution } from '../index.js';
+import { buildCircuit, readResistance, readVoltage, testPointsFor } from '../../board/index.js';
+import { deviatedValue } from './deviation.js';
+import { boardDeviations, type PartDeviation } from './part-spreads.js';
+import type { Evaluate } from './worst-case.js';
+
+/**
+ * The board as a function from part deviations to test-point readings, for the tolerance analyses.
+ *
+ * Each condition's circuit is built once; a sample only rewrites element values, per-part model
+ * parameters and op-amp offsets in place, then solves warm-started from the nominal solution of
+ * that circuit (always the nominal one, never the previous sample's, so a sample's result does not
+ * depend on the order samples are drawn in).
+ */
+
+export interface BoardOutput {
+  testPoint: string;
+  condition: string;
+  /** Netlist node the red probe is on. */
+  node: string;
+  unit: 'V' | 'Ω';
+}
+
+/** One circuit to solve per sample (a condition, or one ohmmeter placement of an unpowered condition). */
+interface Setup {
+  condition: string;
+  circuit: Circuit;
+  nominal: DcSolution;
+  /** One setter per deviation that touches this circuit. */
+  setters: Array<{ index: number; set: (value: number) => void }>;
+  /** Output index → reading from a solution. */
+  readers: Array<{ output: number; read: (s: DcSolution) => number }>;
+}
+
+export interface ConditionEvaluator {
+  condition: string;
+  /** Indices into the board evaluator's outputs. */
+  outputs: number[];
+  evaluate: Evaluate;
+}
+
+export interface BoardEvaluator {
+  deviations: PartDeviation[];
+  outputs: BoardOutput[];
+  /** Readings of every output for one deviation vector (every condition solved). */
+  evaluate: Evaluate;
+  /** The same, one condition at a time (the worst-case search runs per condition). */
+  perCondition: ConditionEvaluator[];
+  /** Operating points solved so far. */
+  solves: () => number;
+}
+
+export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluator {
+  const deviations = boardDeviations(board);
+  const outputs: BoardOutput[] = [];
+  const setups: Setup[] = [];
+  let solves = 0;
+  for (const condition of conditions) {
+    for (const built of buildsFor(board, condition)) {
+      const { circuit, partElements } = built;
+      const setters = deviations.flatMap((d, index) => {
+        const set = setterFor(circuit, partElements[d.part] ?? [], d);
+        return set ? [{ index, set }] : [];
+      });
+      const nominal = solveDC(circuit);
+      solves++;
+      const readers = built.readings.map((r) => {
+        outputs.push({ testPoint: r.testPoint, condition, node: r.node, unit: r.unit });
+        return { output: outputs.length - 1, read: r.read };
+      });
+      setups.push({ condition, circuit, nominal, setters, readers });
+    }
+  }
+  const solveSetup = (setup: Setup, u: Float64Array, into: Float64Array, at: (output: number) => number) => {
+    for (const { index, set } of setup.setters) set(deviatedValue(deviations[index], u[index]));
+    solves++;
+    const s = solveDC(setup.circuit, { initial: setup.nominal });
+    for (const r of setup.readers) into[at(r.output)] = r.read(s);
+  };
+  const evaluate: Evaluate = (u) => {
+    const y = new Float64Array(outputs.length);
+    for (const setup of setups) solveSetup(setup, u, y, (o) => o);
+    return y;
+  };
+  const perCondition = conditions.map((condition) => {
+    const mine = setups.filter((s) => s.condition === condition);
+    const indices = mine.flatMap((s) => s.readers.map((r) => r.output));
+    const position = new Map(indices.map((o, k) => [o, k]));
+    return {
+      condition,
+      outputs: indices,
+      evaluate: (u: Float64Array) => {
+        const y = new Float64Array(indices.length);
+        for (const setup of mine) solveSetup(setup, u, y, (o) => position.get(o)!);
+        return y;
+      },
+    };
+  });
+  return { deviations, outputs, evaluate, perCondition, solves: () => solves };
+}
+
+interface Build {
+  circuit: Circuit;
+  partElements: Record<string, string[]>;
+  readings: Array<{ testPoint: string; node: string; unit: 'V' | 'Ω'; read: (s: DcSolution) => number }>;
+}
+
+function buildsFor(board: Board, condition: string): Build[] {
+  const powered = board.conditions.find((c) => c.id === condition)?.powered ?? true;
+  const points = testPointsFor(board, condition);
+  if (points.length === 0) return [];
+  if (powered) {
+    const { circuit, partElements, netNode } = buildCircuit(board, condition);
+    const readings = points.map((tp) => ({
+      testPoint: tp.id,
+      node: netNode(tp.net),
+      unit: 'V' as const,
+      read: (s: DcSolution) => readVoltage(board, tp, netNode, s),
+    }));
+    return [{ circuit: clone(circuit), partElements, readings }];
+  }
+  return points.map((tp) => {
+    const { circuit, partElements, netNode } = buildCircuit(board, condition, { ohmmeter: { testPoint: tp.id } });
+    const read = (s: DcSolution) => readResistance(board, tp, netNode, s);
+    return { circuit: clone(circuit), partElements, readings: [{ testPoint: tp.id, node: netNode(tp.net), unit: 'Ω' as const, read }] };
+  });
+}
+
+/** A private copy: setters rewrite values in place, and the built circuit may be shared or cached. */
+function clone(circuit: Circuit): Circuit {
+  return {
+    ...circuit,
+    elements: circuit.elements.map((e) => ({ ...e, ...('params' in e ? { params: { ...e.params } } : {}) }) as Element),
+    models: Object.fromEntries(Object.entries(circuit.models).map(([k, m]) => [k, { ...m, params: { ...m.params } }])),
+  };
+}
+
+/**
+ * How one deviation writes into a circuit: a part's value onto its element(s), a model parameter
+ * onto a model of the part's own (each transistor or diode gets a private copy of its model, since
+ * two parts of one type differ), an offset onto one amplifier of a package.
+ */
+function setterFor(circuit: Circuit, elementNames: string[], d: PartDeviation): ((value: number) => void) | undefined {
+  const elements = elementNames.map((n) => circuit.elements.find((e) => e.name === n)).filter((e): e is Element => e !== undefined);
+  const target = d.target;
+  if (target.kind === 'value') {
+    const own = elements.filter((e) => e.kind === 'resistor' || e.kind === 'pot');
+    if (own.length === 0) return undefined;
+    return (value) => {
+      for (const e of own) (e as { value: number }).value = value;
+    };
+  }
+  if (target.kind === 'vos') {
+    const amp = elements.filter((e) => e.kind === 'opamp')[target.amplifier];
+    if (!amp || amp.kind !== 'opamp') return undefined;
+    return (value) => {
+      amp.params.vos = value;
+    };
+  }
+  const semis = elements.filter((e): e is Extract<Element, { kind: 'diode' | 'bjt' }> => e.kind === 'diode' || e.kind === 'bjt');
+  if (semis.length === 0) return undefined;
+  const models = semis.map((e) => {
+    const base = circuit.models[e.model.toLowerCase()];
+    if (!base) return undefined;
+    const name = `${e.model.toLowerCase()}~${e.name}`;
+    if (!circuit.models[name]) circuit.models[name] = { ...base, name, params: { ...base.params } };
+    e.model = name;
+    return circuit.models[name];
+  });
+  return (value) => {
+    for (const m of models) if (m) m.params[target.param] = value;
+  };
+}
