@@ -1,0 +1,12 @@
+export * from './netlist.js';
+export { solveDC, createDcSolver, type DcSolver } from './dc-solver.js';
+export type { DcSolution, ElementResult } from './dc-solution.js';
+export { type DcOptions, DEFAULT_DC_OPTIONS } from './options.js';
+export { ConvergenceError, StampError, SingularMatrixError } from './errors.js';
+export { potResistances, taperFraction } from './devices/potentiometer.js';
+export { opampSpiceLines } from './devices/opamp.js';
+export { DIODE_PARAMS } from './devices/diode.js';
+export { BJT_PARAMS } from './devices/bjt.js';
+export type { JunctionRegion } from './devices/device.js';
+export { thermalVoltage, NOMINAL_TEMPERATURE_C } from './constants.js';
+export { compileCircuit, type CompiledCircuit } from './compile.js';

@@ -1,0 +1,120 @@
+/**
+ * One Newton–Raphson attempt on a compiled circuit, at a given gmin-stepping conductance and
+ * source factor. Each iteration stamps every device's companion model at the iterate (with
+ * junction limiting), factors, solves, and compares per unknown. An iterate is accepted when the
+ * last step was within tolerance, no junction was limited, and KCL holds at every node with the
+ * devices' true currents (./kcl.ts) — the voltage test alone is too loose on an exponential.
+ */
+import type { CompiledCircuit } from './compile.js';
+import type { StampContext } from './devices/device.js';
+import type { ResolvedDcOptions } from './options.js';
+import { Stamper } from './stamper.js';
+import { SparseLu } from './sparse-lu.js';
+import { KclChecker } from './kcl.js';
+import { SingularMatrixError, StampError } from './errors.js';
+
+export interface NewtonOutcome {
+  converged: boolean;
+  iterations: number;
+  /** Unknown indices still moving (or failing the residual) when the attempt gave up. */
+  unsettled: number[];
+  detail: string;
+}
+
+export class NewtonEngine {
+  readonly cc: CompiledCircuit;
+  readonly stamper: Stamper;
+  readonly lu: SparseLu;
+  readonly ctx: StampContext;
+  private readonly xNew: Float64Array;
+  private readonly moving: Uint8Array;
+  private readonly kcl: KclChecker;
+
+  constructor(cc: CompiledCircuit) {
+    this.cc = cc;
+    this.stamper = new Stamper(cc.size);
+    this.lu = new SparseLu(cc.size, cc.pattern);
+    this.ctx = { x: new Float64Array(cc.size), vt: cc.vt, gmin: 1e-12, sourceScale: 1, limit: true, limited: 0 };
+    this.xNew = new Float64Array(cc.size);
+    this.moving = new Uint8Array(cc.size);
+    this.kcl = new KclChecker(cc);
+  }
+
+  /** Stamps every device at x; returns how many devices limited their junction voltages. */
+  stampAt(x: Float64Array, opts: ResolvedDcOptions, diagGmin: number, sourceScale: number, limit: boolean): number {
+    const { stamper, ctx, cc } = this;
+    ctx.x = x;
+    ctx.gmin = opts.gmin;
+    ctx.sourceScale = sourceScale;
+    ctx.limit = limit;
+    ctx.limited = 0;
+    stamper.clear();
+    for (const d of cc.devices) {
+      stamper.owner = d.name;
+      d.stamp(stamper, ctx);
+    }
+    const shunt = opts.gshunt + diagGmin;
+    if (shunt > 0) {
+      const n = cc.size;
+      const a = stamper.a;
+      for (let i = 0; i < n; i++) if (cc.isCurrent[i] === 0) a[i * n + i] += shunt;
+    }
+    return ctx.limited;
+  }
+
+  private residualOk(x: Float64Array, opts: ResolvedDcOptions, diagGmin: number): boolean {
+    const violations = this.kcl.check(x, this.ctx, opts.gshunt + diagGmin, opts.reltol, opts.abstol);
+    for (const v of violations) this.moving[v.index] = 1;
+    return violations.length === 0;
+  }
+
+  run(x: Float64Array, opts: ResolvedDcOptions, diagGmin: number, sourceScale: number): NewtonOutcome {
+    const n = this.cc.size;
+    const { moving, xNew, stamper } = this;
+    const isCurrent = this.cc.isCurrent;
+    let stepSmall = false;
+    const fail = (iterations: number, detail: string, all = false): NewtonOutcome => {
+      const unsettled: number[] = [];
+      for (let i = 0; i < n; i++) if (all || moving[i]) unsettled.push(i);
+      return { converged: false, iterations, unsettled, detail };
+    };
+    for (let iter = 0; iter < opts.maxIterations; iter++) {
+      let limited: number;
+      try {
+        limited = this.stampAt(x, opts, diagGmin, sourceScale, true);
+      } catch (e) {
+        if (e instanceof StampError) return fail(iter, e.message, true);
+        throw e;
+      }
+      if (stepSmall && limited === 0) {
+        moving.fill(0);
+        if (this.residualOk(x, opts, diagGmin)) return { converged: true, iterations: iter, unsettled: [], detail: '' };
+      }
+      try {
+        this.lu.factor(stamper.a);
+      } catch (e) {
+        if (e instanceof SingularMatrixError) {
+          moving.fill(0);
+          if (e.row >= 0 && e.row < n) moving[e.row] = 1;
+          return fail(iter, 'singular matrix');
+        }
+        throw e;
+      }
+      this.lu.solve(stamper.b, xNew);
+      stepSmall = true;
+      moving.fill(0);
+      for (let i = 0; i < n; i++) {
+        const xn = xNew[i];
+        const xo = x[i];
+        if (!Number.isFinite(xn)) return fail(iter + 1, 'non-finite iterate', true);
+        const tol = opts.reltol * Math.max(Math.abs(xn), Math.abs(xo)) + (isCurrent[i] ? opts.abstol : opts.vntol);
+        if (Math.abs(xn - xo) > tol) {
+          stepSmall = false;
+          moving[i] = 1;
+        }
+      }
+      x.set(xNew);
+    }
+    return fail(opts.maxIterations, 'iteration limit');
+  }
+}
