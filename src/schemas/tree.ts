@@ -110,7 +110,7 @@ export const ObserveNodeSchema = z
     path: ['alternative'],
   });
 
-export const INSPECTIONS = ['orientation', 'value-bands', 'solder', 'fitted'] as const;
+export const INSPECTIONS = ['orientation', 'value-marking', 'solder', 'fitted'] as const;
 
 export const InspectNodeSchema = z
   .object({
