@@ -49,6 +49,7 @@ class Reader {
   readonly models: Record<string, Model> = {};
   readonly analyses: Analysis[] = [];
   readonly nodeNames = new Map<string, string>();
+  readonly modelNames = new Map<string, string>();
   temperatureC: number | undefined;
   private readonly names = new Map<string, number>();
 
@@ -66,6 +67,11 @@ class Reader {
     const lower = token.toLowerCase();
     if (lower === 'gnd') return GROUND;
     return this.nodeNames.get(lower) ?? lower;
+  }
+
+  modelName(token: string): string {
+    const lower = token.toLowerCase();
+    return this.modelNames.get(lower) ?? lower;
   }
 
   add(line: number, element: Element): void {
@@ -219,13 +225,13 @@ function readSemiconductor(r: Reader, line: LogicalLine, tokens: string[], kind:
   const terminals = kind === 'diode' ? 2 : 3;
   // A BJT may carry a substrate node before its model; the model names decide which token is which.
   let modelAt = terminals;
-  if (kind === 'bjt' && rest.length > 4 && !(rest[3].toLowerCase() in r.models) && rest[4].toLowerCase() in r.models) modelAt = 4;
+  if (kind === 'bjt' && rest.length > 4 && !(r.modelName(rest[3]) in r.models) && r.modelName(rest[4]) in r.models) modelAt = 4;
   else if (kind === 'bjt' && rest.length === 5 && !readSpiceNumber(rest[4])) modelAt = 4;
   const modelToken = rest[modelAt];
   if (modelToken === undefined) return r.problem(line.line, `${name}: expected ${terminals} nodes and a model name`, form);
   const extra = rest.slice(modelAt + 1);
   if (extra.length > 1) return r.problem(line.line, `${name}: unexpected "${extra.slice(1).join(' ')}"`, form);
-  const model = modelToken.toLowerCase();
+  const model = r.modelName(modelToken);
   const area = extra.length === 1 ? r.number(line.line, extra[0], `${name} area`) : undefined;
   if (extra.length === 1 && area === undefined) return;
   if (area !== undefined && !(area > 0)) return r.problem(line.line, `${name}: area ${area} must be above zero`, 'a positive number');
@@ -260,7 +266,7 @@ function readModel(r: Reader, line: LogicalLine): void {
   const body = line.text.slice('.model'.length).replace(/[(),]/g, ' ').replace(/\s*=\s*/g, '=');
   const tokens = tokensOf(body);
   if (tokens.length < 2) return r.problem(line.line, '.model needs a name and a type', form);
-  const name = tokens[0].toLowerCase();
+  const name = r.modelName(tokens[0]);
   const type = tokens[1].toUpperCase() as ModelType;
   if (!MODEL_TYPES.includes(type)) return r.problem(line.line, `.model ${name}: type ${tokens[1]} is not supported`, 'D, NPN, PNP');
   if (r.models[name]) return r.problem(line.line, `.model ${name} is defined twice`, 'unique model names', 'netlist.duplicate-model');
@@ -299,6 +305,10 @@ function readCard(r: Reader, line: LogicalLine, tokens: string[]): void {
   if (card === '.temp') {
     const t = r.number(line.line, tokens[1], '.temp');
     if (t !== undefined) r.temperatureC = t;
+    return;
+  }
+  if (/^\.opt(ions?)?$/.test(card) && tokens.slice(1).every((t) => /^rshunt\s*=/i.test(t))) {
+    // What our writer adds to mirror the solver's node shunt; the solver has its own.
     return;
   }
   if (IGNORED_CARDS.has(card)) {
@@ -353,8 +363,8 @@ export function parseNetlist(text: string, file?: string): ParsedNetlist {
   // Node renames and models first: elements may use models defined further down, as in SPICE.
   for (const line of split.lines) {
     if (line.annotation) {
-      const m = /^node\s+(\S+)\s+(\S+)$/.exec(line.text);
-      if (m) r.nodeNames.set(m[1].toLowerCase(), m[2]);
+      const m = /^(node|model)\s+(\S+)\s+(\S+)$/.exec(line.text);
+      if (m) (m[1] === 'node' ? r.nodeNames : r.modelNames).set(m[2].toLowerCase(), m[3]);
     } else if (/^\.model\b/i.test(line.text)) {
       readModel(r, line);
     }
@@ -363,7 +373,7 @@ export function parseNetlist(text: string, file?: string): ParsedNetlist {
   let block: { element: Element; line: number } | undefined;
   for (const line of split.lines) {
     if (line.annotation) {
-      if (line.text.startsWith('node') && /^node\s/.test(line.text)) continue;
+      if (/^(node|model)\s/.test(line.text)) continue;
       if (line.text === 'end') {
         if (!block) r.problem(line.line, '*@end without an *@element before it', '*@element {...} … *@end');
         else if ((block.element.kind === 'diode' || block.element.kind === 'bjt') && !r.models[block.element.model]) {
