@@ -1,7 +1,7 @@
 import type { Board } from '../schemas/board.js';
 import { buildCircuit, measureAll, testPointsFor, withSubstitutions } from '../board/index.js';
 import { solveDC, type DcSolution } from '../circuit/index.js';
-import { expectBands, type Band } from '../circuit/analysis/index.js';
+import { expectBands, type Band } from '../circuit/analysis/expect-bands.js';
 import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
 import { applyFault } from './apply-fault.js';
 import { DEFAULT_NO_FAULT_PRIOR } from './fault-modes.js';

@@ -45,8 +45,8 @@ export function explain(dict: FaultDictionary, h: number, readings: Reading[], w
     const known = scored.filter((s) => s.mine).sort((a, b) => b.telling + b.miss - (a.telling + a.miss));
     const clauses = known.slice(0, 2).map((s) => {
       const predicted = showReading(hyp.predictions[s.i], s.obs.unit, meter);
-      const base = `${label(s.i)} would read ${predicted} with ${hyp.part} ${hyp.fault} (healthy ${showReading(s.obs.nominal, s.obs.unit, meter)}); ${you(s.k)}`;
-      return base;
+      const healthyText = s.telling > 1 ? `healthy ${showReading(s.obs.nominal, s.obs.unit, meter)}` : 'as on a healthy board';
+      return `${label(s.i)} would read ${predicted} with ${hyp.part} ${hyp.fault} (${healthyText}); ${you(s.k)}`;
     });
     if (unsure.length > 0) {
       const where = [...new Set(unsure.map((s) => s.obs.condition))].join(', ');
