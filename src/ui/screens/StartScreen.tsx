@@ -4,13 +4,8 @@ import { Frame } from '../components/frame/Frame.js';
 import { ChoiceList, type Choice } from '../components/choice-list/ChoiceList.js';
 import { Tinted } from '../theme/Tinted.js';
 import type { Wordings } from '../walk/wording.js';
+import { boardLineText, type BoardLine } from './board-line.js';
 
-export interface BoardLine {
-  name: string;
-  rails: string[];
-  partCount: number;
-  file: string;
-}
 
 export type StartChoice =
   | { type: 'symptom'; treeId: string }
@@ -33,9 +28,6 @@ interface Props {
   onQuit: () => void;
 }
 
-export function boardLineText(b: BoardLine): string {
-  return `${b.name} · rails ${b.rails.join(', ')} · ${b.partCount} parts`;
-}
 
 /** The first screen: which board, what is wrong with it, or carry on with an unfinished walk. */
 export function StartScreen({ width, board, status, symptoms, resumable, corrupt, wording, isActive = true, onChoose, onToggleWording, onQuit }: Props) {

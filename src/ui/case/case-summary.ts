@@ -1,0 +1,139 @@
+import type { Board } from '../../schemas/board.js';
+import type { WalkSetup } from '../../engine/walk-machine.js';
+import type { WalkContext } from '../../engine/walk-context.js';
+import { transcriptOf } from '../../engine/transcript.js';
+import type { WalkStep } from '../../engine/step-view.js';
+import type { Wordings } from '../walk/wording.js';
+
+/**
+ * A walk told as a case, for whoever picks it up next (a colleague, the support chat): the board
+ * and symptom, changed parts, each reading against its band, the suspects with reasons and what to
+ * measure next — with the question to put to the customer in plain words. Pure: built from the
+ * engine's transcript of the walk; nothing is computed here.
+ */
+export interface CaseSummary {
+  board: { id: string; name: string };
+  tree: { id: string; symptom: string };
+  wording: Wordings;
+  finished: boolean;
+  substitutions: Array<{ ref: string; value: string; was?: string }>;
+  readings: Array<{
+    testPoint: string;
+    label: string;
+    condition: string;
+    text: string;
+    value: number;
+    unit: 'V' | 'Ω';
+    min: number;
+    max: number;
+    nominal: number;
+    outcome: string;
+  }>;
+  answers: Array<{ step: string; question: string; answer: string }>;
+  skipped: Array<{ step: string; reason: string }>;
+  conclusion?: { title: string; advice: string; parts: string[] };
+  suspects: Array<{ rank: number; parts: string[]; faults: string[]; probability: number; why: string; where: string[] }>;
+  next?: { testPoint: string; label: string; condition: string; conditionLabel: string; probe: string; question: string };
+  /** Where the walk stands when it is not finished: the step waiting for an answer. */
+  waitingAt?: { step: string; kind: string; prompt: string };
+}
+
+export function buildCaseSummary(walk: WalkSetup, snapshot: { value: unknown; context: WalkContext }, wording: Wordings): CaseSummary {
+  const t = transcriptOf(walk, snapshot);
+  const board = walk.view.board;
+  const current = t.current;
+  const summary: CaseSummary = {
+    board: t.board,
+    tree: t.tree,
+    wording,
+    finished: current.kind === 'conclude',
+    substitutions: Object.entries(t.substitutions).map(([ref, value]) => ({ ref, value: String(value), was: wasValue(board, ref) })),
+    readings: t.entries.flatMap((e) =>
+      e.reading && e.expected && e.testPoint
+        ? [
+            {
+              testPoint: e.testPoint.id,
+              label: e.testPoint.label,
+              condition: e.condition?.label ?? '',
+              text: e.reading.text,
+              value: e.reading.value,
+              unit: e.expected.unit,
+              min: e.expected.min,
+              max: e.expected.max,
+              nominal: e.expected.nominal,
+              outcome: e.reading.outcome,
+            },
+          ]
+        : [],
+    ),
+    answers: t.entries.flatMap((e) => (e.answer && (e.kind === 'observe' || e.kind === 'inspect') ? [{ step: e.node, question: firstSentence(e.say[wording]), answer: e.answer.label }] : [])),
+    skipped: t.entries.flatMap((e) => (e.skipped ? [{ step: e.node, reason: e.skipped }] : [])),
+    suspects: [],
+  };
+  if (current.conclusion) {
+    summary.conclusion = { title: current.conclusion.title, advice: current.say[wording], parts: current.conclusion.parts.map((p) => p.ref) };
+    summary.suspects = groupSuspects(board, current.conclusion.suspects ?? []);
+  } else {
+    summary.waitingAt = { step: current.node, kind: current.kind, prompt: current.say[wording] };
+  }
+  summary.next = nextQuestion(board, current, wording);
+  return summary;
+}
+
+type Suspects = NonNullable<NonNullable<WalkStep['conclusion']>['suspects']>;
+
+/** Suspects the readings cannot tell apart share a group; a group is one line of the case. */
+function groupSuspects(board: Board, suspects: Suspects) {
+  const groups = new Map<number, Suspects>();
+  for (const s of suspects) groups.set(s.group, [...(groups.get(s.group) ?? []), s]);
+  return [...groups.values()]
+    .map((members) => ({
+      parts: [...new Set(members.map((m) => m.part))],
+      faults: members.map((m) => `${m.part} ${m.fault}`),
+      probability: members.reduce((sum, m) => sum + m.probability, 0),
+      why: members[0].why,
+      where: [...new Set(members.map((m) => board.parts.find((p) => p.ref === m.part)?.where).filter((w): w is string => Boolean(w)))],
+    }))
+    .sort((a, b) => b.probability - a.probability)
+    .map((g, i) => ({ rank: i + 1, ...g }));
+}
+
+/** The next reading to ask for: the step the walk waits at, else the ranking's suggested probe. */
+function nextQuestion(board: Board, current: WalkStep, wording: Wordings): CaseSummary['next'] {
+  if (current.kind === 'measure' && current.testPoint && current.condition) {
+    return {
+      testPoint: current.testPoint.id,
+      label: current.testPoint.label,
+      condition: current.condition.id,
+      conditionLabel: current.condition.label,
+      probe: current.testPoint.probe,
+      question: wording === 'customer' ? current.say.customer : `${current.say.technician} (${current.testPoint.probe})`,
+    };
+  }
+  const s = current.suggestion;
+  if (!s) return undefined;
+  const tp = board.testPoints.find((x) => x.id === s.testPoint);
+  const cond = board.conditions.find((c) => c.id === s.condition);
+  if (!tp || !cond) return undefined;
+  const unit = tp.quantity === 'resistance' ? 'ohms' : 'volts';
+  const question =
+    wording === 'customer'
+      ? `Could you take one more reading? First: ${sentence(cond.instructions)} Then place the meter's probes like this: ${sentence(tp.probe)} What number does the meter show, in ${unit}?`
+      : `Measure ${tp.id} (${tp.label}) under "${cond.label}": ${sentence(tp.probe)}`;
+  return { testPoint: tp.id, label: tp.label, condition: cond.id, conditionLabel: cond.label, probe: tp.probe, question };
+}
+
+function wasValue(board: Board, ref: string): string | undefined {
+  const v = board.parts.find((p) => p.ref === ref)?.value;
+  return v === undefined ? undefined : String(v);
+}
+
+function sentence(text: string): string {
+  const t = text.trim();
+  return /[.!?]$/.test(t) ? t : `${t}.`;
+}
+
+function firstSentence(text: string): string {
+  const m = /^(.*?[.?!])(\s|$)/.exec(text);
+  return (m ? m[1] : text).slice(0, 120);
+}

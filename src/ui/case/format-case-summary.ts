@@ -1,0 +1,58 @@
+import { formatValue } from '../../units/index.js';
+import type { CaseSummary } from './case-summary.js';
+
+/**
+ * The case as text short enough to paste into a support chat: at most about 25 lines, however
+ * long the walk. Markdown marks only what a chat renders well (bold, lists); `text` drops them.
+ */
+export type SummaryStyle = 'md' | 'text';
+
+const MAX_READINGS = 8;
+const MAX_SUSPECTS = 4;
+const MAX_ANSWERS = 3;
+
+const OUTCOME_WORD: Record<string, string> = { 'in-band': 'ok', low: 'LOW', high: 'HIGH', 'stuck-at-rail': 'AT RAIL', 'near-zero': 'ZERO' };
+
+export function formatCaseSummary(c: CaseSummary, style: SummaryStyle = 'md'): string {
+  const b = (s: string) => (style === 'md' ? `**${s}**` : s);
+  const lines: string[] = [];
+  lines.push(style === 'md' ? `### voltwalk case: ${c.tree.symptom}` : `voltwalk case: ${c.tree.symptom}`);
+  lines.push(`Board: ${c.board.name} (${c.board.id}) · walk ${c.finished ? 'finished' : 'not finished'}`);
+  lines.push(
+    c.substitutions.length > 0
+      ? `Parts changed: ${c.substitutions.map((s) => `${s.ref} ${s.was ?? '?'} -> ${s.value}`).join(', ')}`
+      : 'Parts changed: none (kit values)',
+  );
+  if (c.readings.length > 0) {
+    lines.push('Readings (healthy band in brackets):');
+    for (const r of c.readings.slice(0, MAX_READINGS)) {
+      const word = OUTCOME_WORD[r.outcome] ?? r.outcome;
+      lines.push(`- ${r.testPoint} ${r.label}, ${r.condition}: ${formatValue(r.value, r.unit)} ${r.outcome === 'in-band' ? word : b(word)} [${formatValue(r.min, r.unit)} to ${formatValue(r.max, r.unit)}]`);
+    }
+    if (c.readings.length > MAX_READINGS) lines.push(`- … and ${c.readings.length - MAX_READINGS} more`);
+  } else lines.push('Readings: none yet');
+  for (const a of c.answers.slice(0, MAX_ANSWERS)) lines.push(`- ${a.question} -> ${a.answer}`);
+  if (c.skipped.length > 0) lines.push(`Skipped: ${c.skipped.length} step(s) (${c.skipped[0].reason}${c.skipped.length > 1 ? ', …' : ''})`);
+  if (c.conclusion) lines.push(`${b('Found')}: ${c.conclusion.title}`);
+  if (c.suspects.length > 0) {
+    lines.push('Suspects (most likely first):');
+    for (const s of c.suspects.slice(0, MAX_SUSPECTS)) {
+      const who = s.parts.length > 1 ? `${s.faults.join(' or ')} (cannot tell apart yet)` : s.faults.join(', ');
+      lines.push(`${s.rank}. ${who}, ${percent(s.probability)} — ${clip(s.why, 90)}${s.where.length ? ` (${clip(s.where.join('; '), 40)})` : ''}`);
+    }
+  }
+  if (c.waitingAt) lines.push(`Walk waits at: ${clip(c.waitingAt.prompt, 120)}`);
+  if (c.next) {
+    lines.push(`Next: measure ${c.next.testPoint} (${c.next.label}) under "${c.next.conditionLabel}".`);
+    lines.push(`${c.wording === 'customer' ? 'Ask the customer' : 'Ask'}: "${clip(c.next.question, 300)}"`);
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+function percent(p: number): string {
+  return `${Math.round(p * 100)} %`;
+}
+
+function clip(text: string, max: number): string {
+  return text.length <= max ? text : `${text.slice(0, max - 1)}…`;
+}

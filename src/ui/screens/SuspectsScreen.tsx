@@ -1,0 +1,86 @@
+import React from 'react';
+import { Box, Text, useInput } from 'ink';
+import { Frame } from '../components/frame/Frame.js';
+import { Tinted } from '../theme/Tinted.js';
+import type { CaseSummary } from '../case/case-summary.js';
+import { partLine, type PartLineInfo } from '../parts/part-info.js';
+
+interface Props {
+  width: number;
+  title: string;
+  summary: CaseSummary;
+  /** Location, value and colour bands of a part, by designator. */
+  part: (ref: string) => PartLineInfo;
+  /** Why there is no ranking, when there is none. */
+  rankingNote?: string;
+  isActive?: boolean;
+  onSummary: () => void;
+  onBack: () => void;
+  onNewWalk: () => void;
+  onQuit: () => void;
+}
+
+const SHOWN_GROUPS = 3;
+
+/** The end of a walk: what was found, the ranked suspects (groups that readings cannot split shown as one), the next probe. */
+export function SuspectsScreen({ width, title, summary, part, rankingNote, isActive = true, onSummary, onBack, onNewWalk, onQuit }: Props) {
+  useInput(
+    (input, key) => {
+      if (input === 's') onSummary();
+      if (input === 'n') onNewWalk();
+      if (input === 'q') onQuit();
+      if (key.escape) onBack();
+    },
+    { isActive },
+  );
+  const c = summary.conclusion;
+  return (
+    <Frame
+      title={title}
+      width={width}
+      hints={[{ key: 's', does: 'case summary for chat' }, { key: 'Esc', does: 'back' }, { key: 'n', does: 'new walk' }, { key: 'q', does: 'quit' }]}
+    >
+      {c ? (
+        <Box flexDirection="column">
+          <Text bold>FOUND: {c.title}</Text>
+          <Text>{c.advice}</Text>
+        </Box>
+      ) : null}
+      <Box marginTop={1} flexDirection="column">
+        {summary.suspects.length > 0 ? (
+          <>
+            <Text>Suspects, most likely first (from your readings):</Text>
+            {summary.suspects.slice(0, SHOWN_GROUPS).map((g) => (
+              <Box key={g.rank} flexDirection="column">
+                <Text wrap="truncate-end">
+                  {String(g.rank).padStart(2)}. {`${Math.round(g.probability * 100)} %`.padStart(5)}{' '}
+                  <Tinted tone="bad" bold>
+                    {g.faults.join(' or ')}
+                  </Tinted>
+                  {g.parts.length > 1 ? ' (cannot tell apart yet)' : ''}
+                </Text>
+                <Text wrap="truncate-end">{'          '}{g.why}</Text>
+                {g.parts.slice(0, 2).map((ref) => (
+                  <Tinted key={ref} tone="quiet" wrap="truncate-end">
+                    {'          '}
+                    {partLine(part(ref))}
+                  </Tinted>
+                ))}
+              </Box>
+            ))}
+            {summary.suspects.length > SHOWN_GROUPS ? <Text>    … {summary.suspects.length - SHOWN_GROUPS} less likely (in the case summary)</Text> : null}
+          </>
+        ) : (
+          <Text>{rankingNote ?? 'No ranking of suspects.'}</Text>
+        )}
+      </Box>
+      {summary.next ? (
+        <Box marginTop={1}>
+          <Text wrap="truncate-end">
+            Next probe: {summary.next.testPoint} {summary.next.label} under "{summary.next.conditionLabel}" — {summary.next.probe}
+          </Text>
+        </Box>
+      ) : null}
+    </Frame>
+  );
+}
