@@ -25,6 +25,13 @@ import { requireNumber } from '../check-values.js';
 export const SPAN_SMOOTHING = 0.1;
 /** Supply voltage scale over which the quiescent current turns on, volts. */
 export const IQ_KNEE = 1;
+/**
+ * Newton aid, not part of the law: when an iterate would carry the tanh argument from inside the
+ * linear region to beyond ±DRIVE_EDGE, it is evaluated at ±DRIVE_EDGE instead, and when it would
+ * jump from one side to beyond the other, at the centre. Deep in saturation tanh is flat to machine precision, and without this Newton sees no
+ * gain and can bounce from rail to rail forever — the same reasoning as junction limiting.
+ */
+export const DRIVE_EDGE = 3;
 
 interface OpAmpLaw {
   gain: number;
@@ -85,6 +92,14 @@ export function createOpAmp(el: OpAmp, alloc: Allocator): Device {
   const gin = law.rin === Infinity ? 0 : 1 / law.rin;
   const pt: OpAmpPoint = { vo: 0, dInp: 0, dInn: 0, dVp: 0, dVn: 0 };
   const at = (x: Float64Array, i: number) => (i < 0 ? 0 : x[i]);
+  let uOld = 0;
+  const drive = (vinp: number, vinn: number, vvp: number, vvn: number): [number, number] => {
+    const c = (vvp + vvn) / 2;
+    const sp = vvp - vvn - 2 * law.headroom;
+    const r = Math.hypot(sp, SPAN_SMOOTHING);
+    const hh = (sp >= 0 ? (sp + r) / 2 : (SPAN_SMOOTHING * SPAN_SMOOTHING) / (2 * (r - sp))) / 2;
+    return [(law.gain * (vinp - vinn + law.vos) - c) / hh, hh];
+  };
 
   const evaluate = (x: Float64Array) => opampOutput(law, at(x, inp), at(x, inn), at(x, vp), at(x, vn), pt);
   const supplyCurrent = (x: Float64Array) => law.iq * Math.tanh((at(x, vp) - at(x, vn)) / IQ_KNEE);
@@ -92,9 +107,25 @@ export function createOpAmp(el: OpAmp, alloc: Allocator): Device {
   return {
     name: el.name,
     element: el,
+    seed(x: Float64Array | null): void {
+      uOld = x ? drive(at(x, inp), at(x, inn), at(x, vp), at(x, vn))[0] : 0;
+    },
     stamp(s: Stamper, ctx: StampContext): void {
       const x = ctx.x;
-      evaluate(x);
+      let vinp = at(x, inp);
+      const vinn = at(x, inn);
+      const [u, hh] = drive(vinp, vinn, at(x, vp), at(x, vn));
+      let uUsed = u;
+      const towards = uOld * Math.sign(u);
+      if (ctx.limit && Math.abs(u) > DRIVE_EDGE && towards < DRIVE_EDGE) {
+        // Coming from the other side: evaluate at the centre, where the gain is full.
+        uUsed = towards < 0 ? 0 : Math.sign(u) * DRIVE_EDGE;
+        // Evaluate as if the + input sat where the drive is exactly at the edge.
+        vinp += ((uUsed - u) * hh) / law.gain;
+        ctx.limited++;
+      }
+      uOld = uUsed;
+      opampOutput(law, vinp, vinn, at(x, vp), at(x, vn), pt);
       // Norton form of "vo behind rout": current vo/rout from ground into out, rout from out to ground.
       s.conductance(out, -1, gout);
       const gi = gout * pt.dInp, gn = gout * pt.dInn, gp = gout * pt.dVp, gv = gout * pt.dVn;
@@ -102,7 +133,7 @@ export function createOpAmp(el: OpAmp, alloc: Allocator): Device {
       s.matrix(out, inn, -gn);
       s.matrix(out, vp, -gp);
       s.matrix(out, vn, -gv);
-      const lin = gi * at(x, inp) + gn * at(x, inn) + gp * at(x, vp) + gv * at(x, vn);
+      const lin = gi * vinp + gn * vinn + gp * at(x, vp) + gv * at(x, vn);
       s.current(-1, out, gout * pt.vo - lin);
       s.conductance(inp, inn, gin);
       const vs = at(x, vp) - at(x, vn);
