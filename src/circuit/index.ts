@@ -10,3 +10,4 @@ export { BJT_PARAMS } from './devices/bjt.js';
 export type { JunctionRegion } from './devices/device.js';
 export { thermalVoltage, NOMINAL_TEMPERATURE_C } from './constants.js';
 export { compileCircuit, type CompiledCircuit } from './compile.js';
+export { solveAC, createAcSolver, type AcSolution, type AcPhasor, type AcOptions, type AcSolver } from './ac-solver.js';
