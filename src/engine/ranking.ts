@@ -1,4 +1,3 @@
-import { withSubstitutions } from '../board/index.js';
 import { rankSuspects } from '../diagnosis/index.js';
 import { UserInputError } from '../errors.js';
 import type { WalkContext } from './walk-context.js';
@@ -26,8 +25,7 @@ export function rankFor(walk: WalkSetup, context: WalkContext): Ranking {
   const readings = walkReadings(context);
   if (!readings.length) return { note: 'no readings yet, so no ranking of suspects' };
   try {
-    const board = Object.keys(context.substitutions).length ? withSubstitutions(walk.view.board, context.substitutions) : walk.view.board;
-    const { suspects, next } = rankSuspects(board, readings);
+    const { suspects, next } = rankSuspects(walk.view.board, readings, { substitutions: context.substitutions });
     return { suspects, next };
   } catch (error) {
     // A ranking is advice beside the tree's conclusion; if it cannot be computed the walk still stands.

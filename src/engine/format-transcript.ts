@@ -1,0 +1,69 @@
+import { formatValue } from '../units/index.js';
+import type { Transcript, TranscriptEntry } from './transcript.js';
+import type { PartView, WalkStep } from './step-view.js';
+
+export type Wording = 'technician' | 'customer';
+
+/** One line per detail of a step: what was asked, the band, the reading, the outcome. */
+function entryLines(e: TranscriptEntry, n: number, wording: Wording): string[] {
+  const where = e.testPoint ? ` at ${e.testPoint.id} (${e.testPoint.label})` : '';
+  const under = e.condition ? `, ${e.condition.label}` : '';
+  const lines = [`${String(n).padStart(2)}. [${e.node}] ${e.kind}${where}${under}`, `    ${e.say[wording]}`];
+  if (e.skipped) lines.push(`    skipped: ${e.skipped}`);
+  if (e.reading && e.expected) {
+    lines.push(`    expected ${e.expected.text}; read ${formatValue(e.reading.value, e.expected.unit)} → ${e.reading.outcome}`);
+  }
+  if (e.answer && !e.reading) lines.push(`    answer: ${e.answer.label}`);
+  return lines;
+}
+
+function partLine(p: PartView): string {
+  const value = p.value ? ` ${p.value}` : '';
+  return `${p.ref}${value} — ${p.where}${p.orientation ? `; ${p.orientation}` : ''}`;
+}
+
+function currentLines(step: WalkStep, wording: Wording): string[] {
+  if (step.kind === 'conclude' && step.conclusion) {
+    const c = step.conclusion;
+    const lines = [`Conclusion: ${c.title}`, `  ${step.say[wording]}`];
+    if (c.parts.length) lines.push('  Likely parts:', ...c.parts.map((p) => `    ${partLine(p)}`));
+    if (c.suspects?.length) {
+      lines.push('  Ranked suspects (from the readings):');
+      c.suspects.slice(0, 5).forEach((s, i) => lines.push(`    ${i + 1}. ${s.part} ${s.fault} — ${(s.probability * 100).toFixed(0)} % — ${s.why}`));
+    } else if (c.rankingNote) {
+      lines.push(`  (${c.rankingNote})`);
+    }
+    return lines;
+  }
+  if (step.kind === 'blocked') return [`Stopped by the safety guard: ${step.say[wording]}`];
+  return [`Waiting at [${step.node}] ${step.kind}: ${step.say[wording]}`];
+}
+
+function header(t: Transcript): string[] {
+  const lines = [`Tree: ${t.tree.id} — ${t.tree.symptom}`, `Board: ${t.board.id} (${t.board.name})`];
+  const subs = Object.entries(t.substitutions);
+  if (subs.length) lines.push(`Changed parts: ${subs.map(([ref, v]) => `${ref} = ${v}`).join(', ')}`);
+  return lines;
+}
+
+/** The transcript as plain text, in the technician's or the customer's wording. */
+export function formatTranscriptText(t: Transcript, wording: Wording = 'technician'): string {
+  const lines = [...header(t), '', ...t.entries.flatMap((e, i) => entryLines(e, i + 1, wording)), '', ...currentLines(t.current, wording)];
+  if (t.stopped) lines.push('', `Stopped at [${t.stopped.node}]: ${t.stopped.problem.message}${t.stopped.problem.accepted ? ` (accepted: ${t.stopped.problem.accepted})` : ''}`);
+  return `${lines.join('\n')}\n`;
+}
+
+const cell = (s: string) => s.replace(/\|/g, '\\|').replace(/\n/g, ' ');
+
+/** The transcript as Markdown: a table of steps, then the conclusion — pasteable into a support chat or a case note. */
+export function formatTranscriptMarkdown(t: Transcript, wording: Wording = 'technician'): string {
+  const lines = [`## ${cell(t.tree.symptom)}`, '', ...header(t).map((l) => `- ${cell(l)}`), '', '| # | Step | Where | Expected | Reading | Outcome / answer |', '|---|---|---|---|---|---|'];
+  t.entries.forEach((e, i) => {
+    const where = e.testPoint ? `${e.testPoint.id} ${e.testPoint.label}` : '';
+    const result = e.skipped ? `skipped: ${e.skipped}` : e.reading ? e.reading.outcome : (e.answer?.label ?? '');
+    lines.push(`| ${i + 1} | ${cell(e.say[wording])} | ${cell(where)} | ${e.expected ? cell(e.expected.text) : ''} | ${e.reading ? cell(e.reading.text) : ''} | ${cell(result)} |`);
+  });
+  lines.push('', ...currentLines(t.current, wording).map((l, i) => (i === 0 ? `**${l}**` : l.startsWith('    ') ? `- ${l.trim()}` : l.trim())));
+  if (t.stopped) lines.push('', `**Stopped at ${t.stopped.node}:** ${t.stopped.problem.message}`);
+  return `${lines.join('\n')}\n`;
+}
