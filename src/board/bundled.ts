@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import { BOARDS_DIR } from '../paths.js';
 
 /** The demo board `voltwalk` opens when no --board is given. */
-export const DEMO_BOARD_FILE = join(BOARDS_DIR, 'demo-compressor.json');
+export const DEMO_BOARD_FILE = join(BOARDS_DIR, 'wenlow-tamp.json');
 
 /** Every board file shipped in trees/boards, sorted by name. */
 export function bundledBoardFiles(): string[] {

@@ -23,8 +23,12 @@ export interface OhmmeterModel {
 
 export const DEFAULT_OHMMETER: OhmmeterModel = { openCircuitVolts: 3, sourceResistance: 30e3 };
 
-/** Beyond the top range of a handheld meter (tens of MΩ): shown as overload. */
-export const OPEN_CIRCUIT_OHMS = 1e9;
+/**
+ * Beyond the top range of a handheld meter: shown as overload. Common handhelds stop at 20–60 MΩ
+ * (from memory); we put the line at 100 MΩ. A reverse-biased 1N4148 (the NXP model's 4.35 nA
+ * saturation current at 3 V ≈ 690 MΩ) and a net tied only through the 1 GΩ floating-net tie land beyond it.
+ */
+export const OPEN_CIRCUIT_OHMS = 100e6;
 
 /** Element and node names the meter adds to a circuit (no board net may start with "_"). */
 export const METER_SOURCE = 'vmeter';
