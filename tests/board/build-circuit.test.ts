@@ -74,17 +74,22 @@ describe('buildCircuit', () => {
     expect(() => buildCircuit(board, 'quiescent', { ohmmeter: { testPoint: 'TP8' } })).toThrow(UserInputError);
     expect(() => buildCircuit(board, 'quiesent')).toThrow(/no condition "quiesent" — did you mean "quiescent"\?/);
   });
-  it('ties a group of nets with no DC path to ground, and only that group', () => {
-    // Unpowered: -12v and -12v-in are joined by D2 but reach ground only through C2 and C4 (open at DC).
-    const { circuit } = buildCircuit(board, 'unpowered');
-    const ties = circuit.elements.filter((e) => e.name.startsWith('rtie_'));
-    expect(ties).toHaveLength(2);
-    for (const t of ties) expect(t).toMatchObject({ kind: 'resistor', value: TIE_OHMS });
-    // The other group is +12v / +12v-in (D1), which the meter would reach when it is on TP5.
-    const group = (node: string) => (node.startsWith('+') ? 'pos' : 'neg');
-    expect(ties.map((t) => group(t.nodes[0])).sort()).toEqual(['neg', 'pos']);
-    const withMeter = buildCircuit(board, 'unpowered', { ohmmeter: { testPoint: 'TP5' } }).circuit;
-    expect(withMeter.elements.filter((e) => e.name.startsWith('rtie_')).map((t) => group(t.nodes[0]))).toEqual(['neg']);
+  it('ties each net with no firm DC path to ground (junctions do not count), and only those', () => {
+    // Unpowered: the rails reach ground only through capacitors (open at DC) and the protection
+    // diodes; D3's anode only through D3.
+    const tied = (c: { elements: Element[] }) =>
+      c.elements
+        .filter((e) => e.name.startsWith('rtie_'))
+        .map((t) => {
+          expect(t).toMatchObject({ kind: 'resistor', value: TIE_OHMS });
+          return t.nodes[0];
+        })
+        .sort();
+    expect(tied(buildCircuit(board, 'unpowered').circuit)).toEqual(['+12v', '+12v-in', '-12v', '-12v-in', 'probe']);
+    // The meter on TP5 is a path from +12v to ground.
+    expect(tied(buildCircuit(board, 'unpowered', { ohmmeter: { testPoint: 'TP5' } }).circuit)).toEqual(['+12v-in', '-12v', '-12v-in', 'probe']);
+    // Powered, the rail sources drive the header side; D1/D2 and D3 still leave +12v, -12v and probe to a tie.
+    expect(tied(buildCircuit(board, 'quiescent').circuit)).toEqual(['+12v', '-12v', 'probe']);
   });
   it('returns fresh elements each call, so a caller may edit them', () => {
     const a = buildCircuit(board, 'quiescent').circuit;
