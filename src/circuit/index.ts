@@ -11,3 +11,4 @@ export type { JunctionRegion } from './devices/device.js';
 export { thermalVoltage, NOMINAL_TEMPERATURE_C } from './constants.js';
 export { compileCircuit, type CompiledCircuit } from './compile.js';
 export { solveAC, createAcSolver, type AcSolution, type AcPhasor, type AcOptions, type AcSolver } from './ac-solver.js';
+export { LED_PRESETS, LED_COLOURS, ledModel, type LedColour, type LedPreset } from './devices/led-presets.js';
