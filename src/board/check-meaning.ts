@@ -210,6 +210,13 @@ function checkPins(part: Part, at: string, add: Add) {
   for (const pin of required ?? []) {
     if (!(pin in part.pins)) add('pin-on-no-net', `${at}.pins`, `${part.ref} pin "${pin}" is on no net`, `every pin of a ${part.kind} on a net: ${acceptedPinsText(part)}`);
   }
+  // A two-terminal part with both ends on one net does nothing: almost always a copied net name.
+  if (fixed?.length === 2) {
+    const [a, b] = fixed;
+    if (part.pins[a] !== undefined && part.pins[a] === part.pins[b]) {
+      add('shorted-part', `${at}.pins`, `${part.ref} has both pins on net "${part.pins[a]}"`, 'its two pins on two different nets');
+    }
+  }
 }
 
 function checkValue(part: Part, at: string, add: Add) {

@@ -6,6 +6,11 @@ import { ConditionRoleSchema, PartRoleSchema, StageRoleSchema, TestPointRoleSche
  * controls, stages, named operating conditions and the roles diagnostic trees ask for.
  * This schema checks shape; src/board/validate.ts checks meaning (unknown nets, pin counts,
  * values a part kind cannot have) and reports every problem with its path.
+ *
+ * Nets are named by the part pins on them. A net must join two or more pins unless the board names
+ * it elsewhere (a rail's net, a test point's net or refNet, a condition's signal net, the ground):
+ * a net only one pin touches is otherwise reported as dangling. Net names may not start with "_"
+ * (voltwalk's own nodes: the meter, the signal source) and may not differ only in letter case.
  */
 
 export const BOARD_FORMAT = 'voltwalk-board/1';
@@ -42,7 +47,10 @@ export const PartSchema = z
     value: ValueSchema.optional(),
     /** Fraction, e.g. 0.01 for 1 %. Defaults per kind are documented in src/board/defaults.ts. */
     tolerance: z.number().positive().max(1).optional(),
-    /** Model name (key of `models` or `opampModels`) for diodes, LEDs, transistors and op-amps. */
+    /**
+     * Model name (key of `models` or `opampModels`, or a built-in: 1N4148, TL072) for diodes, LEDs,
+     * transistors and op-amps. Diodes default to 1N4148 and op-amps to TL072; the others must name one.
+     */
     model: z.string().optional(),
     /** Pin name -> net name. Pin names per kind are fixed: see src/board/pins.ts. */
     pins: z.record(z.string(), z.string()),
@@ -81,6 +89,7 @@ export const ModelSchema = z
   .strict();
 export type BoardModel = z.infer<typeof ModelSchema>;
 
+/** Op-amp figures per amplifier; any left out are the built-in TL072's (src/board/defaults.ts). */
 export const OpAmpModelSchema = z
   .object({
     gain: z.number().positive().optional(),

@@ -218,6 +218,13 @@ describe('meaning checks on edited copies of the fixture', () => {
     });
     expect(r2.problems.map((p) => p.code)).toContain('board.net-case');
   });
+  it('a two-pin part with both pins on one net', () => {
+    const p = only(check((b) => {
+      part(b, 'C3').pins['2'] = '+12v';
+    }).problems);
+    expect(p.code).toBe('board.shorted-part');
+    expect(p.message).toBe('C3 has both pins on net "+12v"');
+  });
   it('a switch default position it does not have', () => {
     const r = check((b) => {
       part(b, 'SW1').position = 'of';
