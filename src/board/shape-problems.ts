@@ -103,6 +103,7 @@ function valueAt(raw: unknown, path: ReadonlyArray<PropertyKey>): unknown {
 }
 
 const quoteList = (xs: readonly unknown[]) => xs.map((x) => JSON.stringify(x)).join(', ');
+const article = (word: string) => `${/^[aeiou]/i.test(word) ? 'an' : 'a'} ${word}`;
 
 /** One Problem per issue (one per unknown key), in the file's terms. */
 export function shapeProblems(issues: readonly Issue[], raw: unknown, root: unknown, file: string, prefix = 'board'): Problem[] {
@@ -141,7 +142,7 @@ export function shapeProblems(issues: readonly Issue[], raw: unknown, root: unkn
           ...base,
           code: missing ? `${prefix}.missing` : `${prefix}.wrong-type`,
           message: missing ? 'required but missing' : `found ${found(at)}`,
-          accepted: `a ${issue.expected}`,
+          accepted: article(issue.expected),
         });
         break;
       }
@@ -154,7 +155,7 @@ export function shapeProblems(issues: readonly Issue[], raw: unknown, root: unkn
         if (deeper.length > 0 && expected.length < issue.errors.length) {
           problems.push(...shapeProblems(deeper.map((e) => ({ ...e, path: [...issue.path, ...e.path] })) as Issue[], raw, root, file, prefix));
         } else {
-          problems.push({ ...base, code: `${prefix}.wrong-type`, message: `found ${found(at)}`, accepted: [...new Set(expected)].map((e) => `a ${e}`).join(' or ') });
+          problems.push({ ...base, code: `${prefix}.wrong-type`, message: `found ${found(at)}`, accepted: [...new Set(expected)].map(article).join(' or ') });
         }
         break;
       }

@@ -160,6 +160,20 @@ describe('meaning checks on edited copies of the fixture', () => {
     expect(byPath['conditions[2].settings.RV9'].code).toBe('board.unknown-part');
     expect(byPath['conditions[2].settings.R1'].message).toBe('R1 is a resistor, not a control');
   });
+  it('a missing key, a wrong type, and a file that is not an object', () => {
+    const r = check((b) => {
+      delete part(b, 'R1').where;
+      b.rails[0].volts = '12';
+      part(b, 'R2').value = true;
+    });
+    expect(r.problems.map((p) => [p.path, p.message, p.accepted])).toEqual([
+      ['rails[0].volts', 'found string "12"', 'a number'],
+      ['parts[8].where', 'required but missing', 'a string'],
+      ['parts[10].value', 'found boolean true', 'a string or a number'],
+    ]);
+    const top = only(validateBoard([], 'list.json').problems);
+    expect([top.path, top.message, top.accepted]).toEqual([undefined, 'found a list', 'an object']);
+  });
   it('a pot setting above 1 is a shape problem with the range', () => {
     const r = check((b) => {
       b.conditions[2].settings.RV1 = 1.5;
