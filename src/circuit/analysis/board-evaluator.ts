@@ -1,5 +1,5 @@
 import type { Board } from '../../schemas/board.js';
-import type { Circuit, Element } from '../netlist.js';
+import { GROUND, type Circuit, type Element } from '../netlist.js';
 import { solveDC, type DcSolution } from '../index.js';
 import { buildCircuit, readResistance, readVoltage, testPointsFor } from '../../board/index.js';
 import { deviatedValue } from './deviation.js';
@@ -30,6 +30,8 @@ interface Setup {
   nominal: DcSolution;
   /** One setter per deviation that touches this circuit. */
   setters: Array<{ index: number; set: (value: number) => void }>;
+  /** Offset deviations and the − input node of the amplifier each one moves. */
+  offsets: Array<{ index: number; inverting: string }>;
   /** Output index → reading from a solution. */
   readers: Array<{ output: number; read: (s: DcSolution) => number }>;
 }
@@ -70,13 +72,25 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
         outputs.push({ testPoint: r.testPoint, condition, node: r.node, unit: r.unit });
         return { output: outputs.length - 1, read: r.read };
       });
-      setups.push({ condition, circuit, nominal, setters, readers });
+      const offsets = deviations.flatMap((d, index) => {
+        if (d.target.kind !== 'vos') return [];
+        const amps = (partElements[d.part] ?? []).map((n) => circuit.elements.find((e) => e.name === n)).filter((e) => e?.kind === 'opamp');
+        const amp = amps[d.target.amplifier];
+        return amp ? [{ index, inverting: amp.nodes[1] }] : [];
+      });
+      setups.push({ condition, circuit, nominal, setters, offsets, readers });
     }
   }
   const solveSetup = (setup: Setup, u: Float64Array, into: Float64Array, at: (output: number) => number) => {
     for (const { index, set } of setup.setters) set(deviatedValue(deviations[index], u[index]));
     solves++;
-    const s = solveDC(setup.circuit, { initial: setup.nominal });
+    let s: DcSolution;
+    try {
+      s = solveDC(setup.circuit, { initial: offsetSeed(setup, deviations, u) });
+    } catch {
+      solves++;
+      s = solveDC(setup.circuit);
+    }
     for (const r of setup.readers) into[at(r.output)] = r.read(s);
   };
   const evaluate: Evaluate = (u) => {
@@ -99,6 +113,26 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
     };
   });
   return { deviations, outputs, evaluate, perCondition, solves: () => solves };
+}
+
+/**
+ * The nominal solution as a warm start, with each deviated op-amp's − input moved by its offset
+ * change. An op-amp's open-loop gain is so high that an offset of a few millivolts applied to the
+ * nominal solution drives its law deep into saturation, where Newton's linearisation is flat and
+ * the iteration cycles; moving the − input with the offset starts every amplifier at the same
+ * differential input as at nominal, inside its linear region, and one or two steps settle it.
+ */
+function offsetSeed(setup: Setup, deviations: PartDeviation[], u: Float64Array): DcSolution {
+  let seed: DcSolution | undefined;
+  for (const { index, inverting } of setup.offsets) {
+    const d = deviations[index];
+    const shift = deviatedValue(d, u[index]) - d.nominal;
+    if (shift === 0 || inverting === GROUND) continue;
+    seed ??= { ...setup.nominal, nodes: { ...setup.nominal.nodes }, unknowns: setup.nominal.unknowns && { ...setup.nominal.unknowns } };
+    seed.nodes[inverting] = (seed.nodes[inverting] ?? 0) + shift;
+    if (seed.unknowns && inverting in seed.unknowns) seed.unknowns[inverting] += shift;
+  }
+  return seed ?? setup.nominal;
 }
 
 interface Build {

@@ -16,3 +16,4 @@ export {
   type NoiseContribution,
 } from './noise.js';
 export { detectorTimes, LN9, type DetectorTimes, type PathTime, type PathPart } from './detector-times.js';
+export { makeupNoise, type MakeupNoise, type MakeupNoiseOptions } from './makeup-noise.js';

@@ -1,6 +1,6 @@
 import type { Circuit, Element, OpAmp } from '../netlist.js';
 import { GROUND } from '../netlist.js';
-import { potResistances, solveAC, solveDC, type DcSolution } from '../index.js';
+import { createAcSolver, potResistances, solveDC, type AcSolver, type DcSolution } from '../index.js';
 
 /**
  * Output noise of a circuit from its small-signal AC solution.
@@ -13,10 +13,13 @@ import { potResistances, solveAC, solveDC, type DcSolution } from '../index.js';
  *   TL072 15 nV/√Hz per the ST datasheet; the board's `opampModels[].en/in` override).
  * Junction shot noise and 1/f noise are not modelled: the stages this serves are op-amps and resistors.
  *
- * Method: one AC solve per source per frequency (the circuit has a few dozen sources; an adjoint
- * solve would need a transposed system the AC solver does not expose). The output density is the
+ * Method: each source gets its own small-signal solver (the circuit with that source as the only
+ * excitation, linearised once) and is solved at every frequency of the grid. An adjoint solve
+ * would give every transfer at once but needs the transposed system, which the AC solver does not
+ * expose; for a board of a few dozen sources this costs well under a second. The output density is the
  * root-sum-square of each source's density times the magnitude of its transfer to the output; the
- * rms over a band integrates density² over frequency on a log grid (trapezoid in ln f).
+ * rms over a band integrates density² over frequency on a log grid, each interval taken as a power
+ * law through its end points (exact for white noise and for the f^-2 tail of a single pole).
  * k = 1.380649e-23 J/K (SI, exact); T from the circuit (27 °C, SPICE's default, when absent).
  * 0 dBu = 0.7746 V rms (√0.6 V: 1 mW into 600 Ω).
  */
@@ -31,9 +34,11 @@ export interface NoiseOptions {
   reference?: string;
   /** Spot frequency for `density`, Hz; default 1 kHz. */
   frequency?: number;
+  /** More spot frequencies, Hz: their total densities come back in `spectrum`. */
+  frequencies?: number[];
   /** Band integrated for `rms`, Hz; default 20 Hz–20 kHz. */
   band?: [number, number];
-  /** Frequency points per decade of the band; default 20. */
+  /** Frequency points per decade of the band; default 10 (each interval is integrated as a power law). */
   pointsPerDecade?: number;
   /** Operating point, if already solved. */
   op?: DcSolution;
@@ -55,6 +60,8 @@ export interface NoiseResult {
   frequency: number;
   /** Output noise density at `frequency`, V/√Hz. */
   density: number;
+  /** Total output density at each of `options.frequencies`. */
+  spectrum: Array<{ frequency: number; density: number }>;
   band: [number, number];
   /** Output noise over the band, V rms. */
   rms: number;
@@ -86,7 +93,7 @@ export function thermalNoiseDensity(ohms: number, temperatureK: number): number 
 export function outputNoise(circuit: Circuit, options: NoiseOptions): NoiseResult {
   const frequency = options.frequency ?? 1000;
   const band = options.band ?? [20, 20000];
-  const ppd = options.pointsPerDecade ?? 20;
+  const ppd = options.pointsPerDecade ?? 10;
   if (!(band[0] > 0 && band[1] > band[0])) throw new RangeError(`noise band must be 0 < low < high, got ${band[0]}–${band[1]} Hz`);
   const temperatureK = (circuit.temperatureC ?? 27) + 273.15;
   const op = options.op ?? solveDC(circuit);
@@ -96,30 +103,40 @@ export function outputNoise(circuit: Circuit, options: NoiseOptions): NoiseResul
 
   const steps = Math.max(2, Math.ceil(Math.log10(band[1] / band[0]) * ppd));
   const grid = Array.from({ length: steps + 1 }, (_, i) => band[0] * (band[1] / band[0]) ** (i / steps));
+  const spectrumSquares = (options.frequencies ?? []).map(() => 0);
   const contributions: NoiseContribution[] = sources.map((s) => {
-    const gain = (f: number) => transfer(s, f, op, out, ref);
+    const ac = createAcSolver(s.circuit, { op: augmented(op, s.circuit) });
+    const gain = (f: number) => transfer(ac, f, out, ref);
     const spot = s.density * gain(frequency);
-    // ∫ d² df = ∫ d² f d(ln f): trapezoid on the log grid.
     let integral = 0;
-    let prev = (s.density * gain(grid[0])) ** 2 * grid[0];
+    let prev = (s.density * gain(grid[0])) ** 2;
     for (let i = 1; i < grid.length; i++) {
-      const cur = (s.density * gain(grid[i])) ** 2 * grid[i];
-      integral += 0.5 * (prev + cur) * Math.log(grid[i] / grid[i - 1]);
+      const cur = (s.density * gain(grid[i])) ** 2;
+      integral += powerLawArea(grid[i - 1], prev, grid[i], cur);
       prev = cur;
     }
+    (options.frequencies ?? []).forEach((f, i) => (spectrumSquares[i] += (s.density * gain(f)) ** 2));
     return { source: s.source, element: s.element, density: spot, rms: Math.sqrt(integral) };
   });
+  const spectrum = (options.frequencies ?? []).map((frequency, i) => ({ frequency, density: Math.sqrt(spectrumSquares[i]) }));
   contributions.sort((a, b) => b.rms - a.rms);
   const density = Math.sqrt(contributions.reduce((acc, c) => acc + c.density ** 2, 0));
   const rms = Math.sqrt(contributions.reduce((acc, c) => acc + c.rms ** 2, 0));
-  return { frequency, density, band, rms, rmsMicrovolts: rms * 1e6, dBu: toDbu(rms), temperatureK, contributions };
+  return { frequency, density, spectrum, band, rms, rmsMicrovolts: rms * 1e6, dBu: toDbu(rms), temperatureK, contributions };
 }
 
-function transfer(s: NoiseSource, f: number, op: DcSolution, out: string, ref: string): number {
-  const ac = solveAC(s.circuit, f, { op: augmented(op, s.circuit) });
-  const v = (n: string) => (n === GROUND ? { re: 0, im: 0 } : (ac.nodes[n] ?? { re: 0, im: 0 }));
-  const a = v(out);
-  const b = v(ref);
+/** ∫ y df from f1 to f2 for y = y1·(f/f1)^a through (f1, y1) and (f2, y2). */
+function powerLawArea(f1: number, y1: number, f2: number, y2: number): number {
+  if (y1 <= 0 || y2 <= 0) return 0.5 * (y1 + y2) * (f2 - f1);
+  const a = Math.log(y2 / y1) / Math.log(f2 / f1);
+  if (Math.abs(a + 1) < 1e-9) return y1 * f1 * Math.log(f2 / f1);
+  return (y2 * f2 - y1 * f1) / (a + 1);
+}
+
+function transfer(ac: AcSolver, f: number, out: string, ref: string): number {
+  const nodes = ac.solve(f).nodes;
+  const a = nodes[out] ?? { re: 0, im: 0 };
+  const b = nodes[ref] ?? { re: 0, im: 0 };
   return Math.hypot(a.re - b.re, a.im - b.im);
 }
 

@@ -11,7 +11,7 @@ const sqrt4kTR = (r: number, t = T27) => Math.sqrt(4 * K * t * r);
 /** An op-amp close to ideal, with the noise figures under test (the en default is the TL072's 15 nV/√Hz, ST datasheet). */
 const amp = (over: Partial<OpAmpParams> = {}): OpAmpParams => ({
   gain: 1e7,
-  rout: 0,
+  rout: 1,
   rin: 1e12,
   headroom: 1.5,
   iq: 0,
