@@ -33,6 +33,8 @@ export interface BuiltDictionary extends FaultDictionary {
   faults: Fault[];
   /** Per hypothesis, the conditions under which the solver could not settle the faulty circuit. */
   unsettled: Map<string, string[]>;
+  /** Conditions left out because the healthy board itself could not be solved in them. */
+  skippedConditions: string[];
 }
 
 /**
@@ -66,20 +68,32 @@ function cacheKey(board: Board, options: DictionaryOptions): string | undefined 
 }
 
 function build(board: Board, options: DictionaryOptions): BuiltDictionary {
-  const conditions = options.conditions ?? board.conditions.map((c) => c.id);
   const faults = options.faults ?? faultsFor(board);
-  const bands = options.bands ?? conditions.flatMap((c) => expectBands(board, { condition: c, samples: 0 }));
-  const bandOf = new Map(bands.map((b) => [`${b.condition}:${b.id}`, b]));
   const span = Math.max(...board.rails.map((r) => Math.abs(r.volts))) + 1;
 
   const observables: Observable[] = [];
   const nominal: number[] = [];
   const warm = new Map<string, DcSolution | undefined>();
-  for (const condition of conditions) {
-    const readings = measureAll(board, condition);
-    warm.set(condition, healthySolution(board, condition));
+  const conditions: string[] = [];
+  const skipped: string[] = [];
+  for (const condition of options.conditions ?? board.conditions.map((c) => c.id)) {
+    // A condition the healthy board itself cannot be solved in predicts nothing; it is left out and said so.
+    let readings: Record<string, number>;
+    let bands: Band[];
+    try {
+      const initial = healthySolution(board, condition);
+      readings = measureAll(board, condition, { initial });
+      bands = options.bands?.filter((b) => b.condition === condition) ?? expectBands(board, { condition, samples: 0 });
+      warm.set(condition, initial);
+    } catch (error) {
+      if (!isSolverFailure(error)) throw error;
+      skipped.push(condition);
+      continue;
+    }
+    conditions.push(condition);
+    const bandOf = new Map(bands.map((b) => [b.id, b]));
     for (const tp of testPointsFor(board, condition)) {
-      const band = bandOf.get(`${condition}:${tp.id}`);
+      const band = bandOf.get(tp.id);
       const value = readings[tp.id];
       const unit = tp.quantity === 'voltage' ? 'V' : 'Ω';
       const halfWidth = band && Number.isFinite(band.max - band.min) ? (band.max - band.min) / 2 : 0;
@@ -98,7 +112,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
       try {
         readings = measureAll(faulty, condition, { initial: warm.get(condition) });
       } catch (error) {
-        if (!(error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError)) throw error;
+        if (!isSolverFailure(error)) throw error;
         unsettled.set(fault.id, [...(unsettled.get(fault.id) ?? []), condition]);
       }
       for (const tp of testPointsFor(board, condition)) predictions.push(readings ? readings[tp.id] : NaN);
@@ -112,8 +126,10 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
   hypotheses[0].prior = faults.length === 0 ? 1 : noFault;
   for (let i = 1; i < hypotheses.length; i++) hypotheses[i].prior = weight > 0 ? ((1 - noFault) * hypotheses[i].prior) / weight : 0;
 
-  return { board, observables, hypotheses, faults, unsettled };
+  return { board, observables, hypotheses, faults, unsettled, skippedConditions: skipped };
 }
+
+const isSolverFailure = (error: unknown) => error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError;
 
 /** The healthy operating point of a powered condition, to start each faulty solve from. */
 function healthySolution(board: Board, condition: string): DcSolution | undefined {

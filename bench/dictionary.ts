@@ -1,0 +1,55 @@
+/**
+ * Fault dictionary and ranking on the main demo board: the time to build the whole dictionary
+ * (every modelled fault of every part, under every condition, healthy bands included) and the time
+ * to rank a set of readings against it. Target: build + rank ≤ 250 ms on one core. Medians.
+ * The build is timed in phases (healthy solves and bands; faulty solves) so the report says what
+ * dominates when the target is missed.
+ */
+import { DEMO_BOARD_FILE, loadBoard } from '../src/board/index.js';
+import { expectBands } from '../src/circuit/analysis/expect-bands.js';
+import { buildDictionary, faultsFor, rankSuspects, type BuiltDictionary, type Reading } from '../src/diagnosis/index.js';
+import { fmt, median, timeRuns } from './timing.js';
+
+const BUILD_RUNS = 3;
+const TARGET_MS = 250;
+
+export async function run(): Promise<void> {
+  const board = loadBoard(DEMO_BOARD_FILE);
+  const faults = faultsFor(board);
+  const conditions = board.conditions.map((c) => c.id);
+
+  const bandTimes: number[] = [];
+  const buildTimes: number[] = [];
+  let dict: BuiltDictionary | undefined;
+  for (let i = 0; i < BUILD_RUNS; i++) {
+    let t0 = performance.now();
+    const bands = conditions.flatMap((condition) => {
+      try {
+        return expectBands(board, { condition, samples: 0 });
+      } catch {
+        return [];
+      }
+    });
+    bandTimes.push(performance.now() - t0);
+    t0 = performance.now();
+    // Passing the fault list and bands bypasses the cache: every run builds from scratch.
+    dict = buildDictionary(board, { faults, bands });
+    buildTimes.push(performance.now() - t0);
+  }
+  const d = dict!;
+  const solves = d.faults.length * new Set(d.observables.map((o) => o.condition)).size;
+  const unsettled = [...d.unsettled.values()].reduce((a, c) => a + c.length, 0);
+
+  // Rank: three readings taken from a fault's own predictions, as after a short walk.
+  const h = Math.min(10, d.hypotheses.length - 1);
+  const readings: Reading[] = d.observables.slice(0, 3).map((o, i) => ({ testPoint: o.testPoint, condition: o.condition, value: d.hypotheses[h].predictions[i] }));
+  const rankTimes = timeRuns(() => void rankSuspects(board, readings, { dictionary: d }), 20);
+
+  const total = median(bandTimes) + median(buildTimes) + median(rankTimes);
+  console.log(`board ${board.id}: ${d.faults.length} faults × ${new Set(d.observables.map((o) => o.condition)).size} conditions (${d.observables.length} test-point readings per hypothesis)`);
+  if (d.skippedConditions.length) console.log(`conditions left out (healthy board did not solve): ${d.skippedConditions.join(', ')}`);
+  console.log(`healthy bands (worst case, every condition)   median ${fmt(median(bandTimes))}`);
+  console.log(`faulty solves (${solves} fault × condition)     median ${fmt(median(buildTimes))}  (${fmt(median(buildTimes) / Math.max(solves, 1))} each; ${unsettled} did not settle)`);
+  console.log(`rank 3 readings, suspects + groups + next       median ${fmt(median(rankTimes))}`);
+  console.log(`total ${fmt(total)} against a ${TARGET_MS} ms target: ×${(total / TARGET_MS).toFixed(1)}`);
+}
