@@ -14,7 +14,7 @@ export const settle = (ms = 150) => new Promise((resolve) => setTimeout(resolve,
 
 /** Types text and each key, waiting for the frame after each write (and once before, so input listeners are attached). */
 export async function press(stdin: { write: (s: string) => void }, ...keys: string[]): Promise<void> {
-  await settle();
+  await settle(300);
   for (const k of keys) {
     stdin.write(k);
     await settle();

@@ -13,6 +13,7 @@ import { ReadingResultScreen, type ReadingResult } from '../screens/ReadingResul
 import { SuspectsScreen } from '../screens/SuspectsScreen.js';
 import { Frame } from '../components/frame/Frame.js';
 import { useInput } from 'ink';
+import { hintOf } from '../components/text-field/hint-of.js';
 
 interface Props {
   services: typeof Services;
@@ -76,7 +77,7 @@ export function WalkView({ services, run, width, wording, send, onSummary, onNew
         try {
           return { ok: true, value: services.engine.readingEvent(step, typed) };
         } catch (error) {
-          return { ok: false, hint: oneLine(error) };
+          return { ok: false, hint: hintOf(error) };
         }
       };
       return (

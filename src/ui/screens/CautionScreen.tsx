@@ -27,7 +27,7 @@ function acknowledge(text: string): Check<true> {
 /** The hazard in plain words before any powered step. */
 export function CautionScreen({ width, title, stageMap, text, hazards, isActive = true, onAcknowledge, onBack }: Props) {
   return (
-    <Frame title={title} width={width} hints={[{ key: 'y Enter', does: 'I have read this' }, { key: 'Esc', does: 'back' }, { key: 'Ctrl-C', does: 'quit (saved)' }]}>
+    <Frame title={title} width={width} hints={[{ key: 'y Enter', does: 'I have read this' }, { key: 'Esc', does: 'back' }, { key: 'Ctrl-C', does: 'quit, saved' }]}>
       {stageMap}
       <Box marginTop={stageMap ? 1 : 0} flexDirection="column">
         <Tinted tone="caution" bold>

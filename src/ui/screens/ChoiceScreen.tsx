@@ -33,7 +33,7 @@ export function ChoiceScreen({ width, title, stageMap, heading, text, parts = []
     <Frame
       title={title}
       width={width}
-      hints={[{ key: '↑↓', does: 'choose' }, { key: 'Enter', does: 'answer' }, { key: 'Esc', does: 'back' }, ...(canSkip ? [{ key: 'Tab', does: 'cannot tell, skip' }] : []), { key: 'Ctrl-C', does: 'quit (saved)' }]}
+      hints={[{ key: '↑↓', does: 'choose' }, { key: 'Enter', does: 'answer' }, { key: 'Esc', does: 'back' }, ...(canSkip ? [{ key: 'Tab', does: 'cannot tell, skip' }] : []), { key: 'Ctrl-C', does: 'quit, saved' }]}
     >
       {stageMap}
       <Box marginTop={stageMap ? 1 : 0} flexDirection="column">

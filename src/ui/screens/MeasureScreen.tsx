@@ -37,7 +37,7 @@ export function MeasureScreen({ width, title, stageMap, text, testPoint, conditi
     <Frame
       title={title}
       width={width}
-      hints={[{ key: 'Enter', does: 'record reading' }, { key: 'Esc', does: 'back' }, { key: 'Tab', does: 'cannot measure, skip' }, { key: 'Ctrl-C', does: 'quit (saved)' }]}
+      hints={[{ key: 'Enter', does: 'record' }, { key: 'Esc', does: 'back' }, { key: 'Tab', does: 'skip (cannot measure)' }, { key: 'Ctrl-C', does: 'quit, saved' }]}
     >
       {stageMap}
       <Box marginTop={stageMap ? 1 : 0} flexDirection="column">

@@ -11,6 +11,7 @@ import { partLine } from '../parts/part-info.js';
 import type { Board } from '../../schemas/board.js';
 import type { ServicesModule } from '../app/App.js';
 import type { Check } from '../components/text-field/use-text-field.js';
+import { hintOf } from '../components/text-field/hint-of.js';
 
 type Subs = Record<string, string | number>;
 
@@ -68,7 +69,7 @@ export function PartsScreen({ width, board, substitutions, services, cwd, isActi
       services.substituted(board, { ...substitutions, [ref]: text.trim() });
       return { ok: true, value: text.trim() };
     } catch (error) {
-      return { ok: false, hint: (error as Error).message.split('\n')[0] };
+      return { ok: false, hint: hintOf(error) };
     }
   };
   const checkImport = (text: string): Check<{ subs: Subs; ignored: string[] }> => {
@@ -94,7 +95,7 @@ export function PartsScreen({ width, board, substitutions, services, cwd, isActi
         const one = services.substituted(board, { [row.ref]: row.value });
         if (services.partValueOf(one, row.ref) !== services.partValueOf(board, row.ref)) subs[row.ref] = row.value;
       } catch (error) {
-        return { ok: false, hint: `line ${row.line}: ${(error as Error).message.split('\n')[0]}` };
+        return { ok: false, hint: `line ${row.line}: ${hintOf(error)}` };
       }
     }
     return { ok: true, value: { subs, ignored } };

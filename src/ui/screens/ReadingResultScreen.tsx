@@ -43,7 +43,7 @@ export function ReadingResultScreen({ width, title, stageMap, result, format, is
   );
   const verdict = verdictOf(result.band, result.value);
   return (
-    <Frame title={title} width={width} hints={[{ key: 'Enter', does: 'next step' }, { key: 'Ctrl-C', does: 'quit (saved)' }]}>
+    <Frame title={title} width={width} hints={[{ key: 'Enter', does: 'next step' }, { key: 'Ctrl-C', does: 'quit, saved' }]}>
       {stageMap}
       <Box marginTop={stageMap ? 1 : 0} flexDirection="column">
         <Text bold>

@@ -26,7 +26,7 @@ export function SetupScreen({ width, title, stageMap, text, condition, powered, 
     { isActive },
   );
   return (
-    <Frame title={title} width={width} hints={[{ key: 'Enter', does: 'done, next' }, { key: 'Esc', does: 'back' }, { key: 'Ctrl-C', does: 'quit (saved)' }]}>
+    <Frame title={title} width={width} hints={[{ key: 'Enter', does: 'done, next' }, { key: 'Esc', does: 'back' }, { key: 'Ctrl-C', does: 'quit, saved' }]}>
       {stageMap}
       <Box marginTop={stageMap ? 1 : 0} flexDirection="column">
         <Text bold>SET UP{powered ? ' (power on)' : ' (power off)'}</Text>

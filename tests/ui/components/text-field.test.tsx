@@ -47,3 +47,12 @@ describe('TextField', () => {
     expect(lastFrame()).toBe('Count:');
   });
 });
+
+describe('TextField, fast input', () => {
+  it('submits text pasted together with its Enter in one write', async () => {
+    const got: number[] = [];
+    const { stdin } = render(<TextField label="Count:" check={digits} onSubmit={(v) => got.push(v)} />);
+    await press(stdin, '42\r');
+    expect(got).toEqual([42]);
+  });
+});

@@ -33,7 +33,7 @@ describe('caution screen', () => {
         '',
         'Read it? Type y and Enter: _',
         '',
-        'y Enter I have read this  ·  Esc back  ·  Ctrl-C quit (saved)',
+        'y Enter I have read this  ·  Esc back  ·  Ctrl-C quit, saved',
       ].join('\n'),
     );
   });

@@ -26,7 +26,11 @@ export function TextField<T>({ label, placeholder, initial, isActive = true, che
         {label} {state.value ? state.value : placeholder ? <Tinted tone="quiet">{placeholder}</Tinted> : null}
         {isActive ? '_' : ''}
       </Text>
-      {hint ? <Tinted tone="bad">! {hint}</Tinted> : null}
+      {hint ? (
+        <Tinted tone="bad" wrap="truncate-end">
+          ! {hint}
+        </Tinted>
+      ) : null}
     </Box>
   );
 }
