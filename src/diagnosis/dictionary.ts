@@ -9,6 +9,7 @@ import type { Fault } from './fault.js';
 import { faultsFor } from './faults-for.js';
 import { NO_FAULT, type FaultDictionary, type Hypothesis, type Observable } from './dictionary-model.js';
 import { DEFAULT_METER } from './meter.js';
+import { dictionaryKey, loadDictionary, saveDictionary } from './dictionary-cache.js';
 
 export interface DictionaryOptions {
   /** Conditions to predict; every condition of the board when absent. */
@@ -24,6 +25,11 @@ export interface DictionaryOptions {
    * Monte Carlo (the band edges are what the spread estimate needs; the 99 % interval is not).
    */
   bands?: Band[];
+  /**
+   * Keep the built dictionary in this folder and reuse it on later runs (see dictionary-cache.ts);
+   * `version` is the program's version, part of the key. Off unless given.
+   */
+  diskCache?: { dir: string; version: string };
 }
 
 export interface BuiltDictionary extends FaultDictionary {
@@ -50,7 +56,10 @@ export function buildDictionary(board: Board, options: DictionaryOptions = {}): 
   const key = cacheKey(subject, options);
   const cached = key === undefined ? undefined : cache.get(key);
   if (cached) return cached;
-  const built = build(subject, options);
+  const disk = options.diskCache && key !== undefined ? { ...options.diskCache, key: dictionaryKey(subject, options.conditions, options.noFaultPrior, options.diskCache.version) } : undefined;
+  const stored = disk && loadDictionary(disk.dir, disk.key, subject);
+  const built = stored || build(subject, options);
+  if (disk && !stored) saveDictionary(disk.dir, disk.key, built);
   if (key !== undefined) {
     cache.set(key, built);
     if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
@@ -60,6 +69,11 @@ export function buildDictionary(board: Board, options: DictionaryOptions = {}): 
 
 const CACHE_SIZE = 8;
 const cache = new Map<string, BuiltDictionary>();
+
+/** Forgets the dictionaries held in memory (the disk cache, if any, stays). */
+export function clearDictionaryCache(): void {
+  cache.clear();
+}
 
 /** Only the default fault list and bands are cached: those are the ones derived from the board alone. */
 function cacheKey(board: Board, options: DictionaryOptions): string | undefined {

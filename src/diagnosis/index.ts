@@ -1,7 +1,7 @@
 export { faultsFor } from './faults-for.js';
 export { applyFault, REVERSED_ELECTROLYTIC_OHMS } from './apply-fault.js';
 export { OPEN_OHMS, SHORT_OHMS } from './board-edits.js';
-export { buildDictionary, type DictionaryOptions, type BuiltDictionary } from './dictionary.js';
+export { buildDictionary, clearDictionaryCache, type DictionaryOptions, type BuiltDictionary } from './dictionary.js';
 export { rankSuspects, type RankOptions } from './rank-suspects.js';
 export { RankResultSchema, SuspectSchema, SuspectGroupSchema, NextProbeSchema, type RankResult, type Suspect, type SuspectGroup } from './rank-result.js';
 export { FAULT_MODES, DEFAULT_NO_FAULT_PRIOR, modeWeight, type FaultMode, type FaultModeId } from './fault-modes.js';
@@ -14,3 +14,4 @@ export { DEFAULT_METER, meterAccuracy, type MeterSpec } from './meter.js';
 export { colourMisreads, type Misread } from './colour-misreads.js';
 export { legOrderOf, pinLanding, type LegOrder } from './transistor-pinouts.js';
 export { showReading } from './why.js';
+export { defaultCacheDir, DICTIONARY_FORMAT } from './dictionary-cache.js';

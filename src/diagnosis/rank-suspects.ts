@@ -23,6 +23,8 @@ export interface RankOptions {
   minProbability?: number;
   /** Share of the prior for "no fault"; default 5 %. */
   noFaultPrior?: number;
+  /** Keep the dictionary on disk between runs (see buildDictionary). */
+  diskCache?: { dir: string; version: string };
 }
 
 /** Hypotheses below this share of the leader are out of the running: they are not grouped or probed for. */
@@ -36,7 +38,12 @@ const MAX_LIVE = 150;
  */
 export function rankSuspects(board: Board, readings: Reading[], options: RankOptions = {}): RankResult {
   const meter = options.meter ?? DEFAULT_METER;
-  const dict = options.dictionary ?? buildDictionary(board, { substitutions: options.substitutions, conditions: options.conditions, noFaultPrior: options.noFaultPrior });
+  const dict = options.dictionary ?? buildDictionary(board, {
+      substitutions: options.substitutions,
+      conditions: options.conditions,
+      noFaultPrior: options.noFaultPrior,
+      diskCache: options.diskCache,
+    });
   const where = locateReadings(dict, readings);
   const p = posterior(dict, readings, { meter });
   const order = p.map((_, i) => i).sort((a, b) => p[b] - p[a]);

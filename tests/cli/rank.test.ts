@@ -1,19 +1,22 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { run } from '../../src/cli/run.js';
 import { memoryIo } from '../../src/cli/io.js';
 import { measureAll } from '../../src/board/index.js';
-import { applyFault, faultsFor, RankResultSchema } from '../../src/diagnosis/index.js';
+import { applyFault, clearDictionaryCache, faultsFor, RankResultSchema } from '../../src/diagnosis/index.js';
 import { TINY_BOARD_INPUT, tinyBoard } from '../diagnosis/tiny-board.js';
 
 let file: string;
+let cacheDir: string;
 let r2Open: Record<string, number>;
 let r2OpenOff: Record<string, number>;
 
 beforeAll(() => {
-  file = join(mkdtempSync(join(tmpdir(), 'voltwalk-rank-')), 'tiny.json');
+  const dir = mkdtempSync(join(tmpdir(), 'voltwalk-rank-'));
+  file = join(dir, 'tiny.json');
+  cacheDir = join(dir, 'cache');
   writeFileSync(file, JSON.stringify(TINY_BOARD_INPUT));
   const board = tinyBoard();
   const faulty = applyFault(board, faultsFor(board).find((f) => f.id === 'R2/open')!);
@@ -22,7 +25,7 @@ beforeAll(() => {
 });
 
 const rank = async (...args: string[]) => {
-  const io = memoryIo();
+  const io = memoryIo({ env: { VOLTWALK_CACHE_DIR: cacheDir } });
   const code = await run(['rank', '--board', file, ...args], io);
   return { code, out: io.out(), err: io.err() };
 };
@@ -75,6 +78,20 @@ describe('voltwalk rank', () => {
     // Ranked against the drawing (4k7), the same readings point away from a healthy board.
     const asDrawn = await json();
     expect(asDrawn.groups[0].members).not.toContain('none');
+  });
+
+  it('keeps the dictionary for the next run, and a corrupt kept file is rebuilt, not an error', async () => {
+    const first = await rank('--reading', 'TP1=8', '--json');
+    const kept = readdirSync(cacheDir).filter((f) => f.endsWith('.json'));
+    expect(kept.length).toBeGreaterThan(0);
+    clearDictionaryCache(); // as a new process would start
+    const again = await rank('--reading', 'TP1=8', '--json');
+    expect(again.out).toBe(first.out);
+    for (const f of kept) writeFileSync(join(cacheDir, f), '{"format": "voltwalk-dictionary/1", "hypo');
+    clearDictionaryCache();
+    const rebuilt = await rank('--reading', 'TP1=8', '--json');
+    expect(rebuilt.code).toBe(0);
+    expect(rebuilt.out).toBe(first.out);
   });
 
   const oneLine = (err: string) => err.trim().split('\n');

@@ -6,7 +6,8 @@ import type { Board } from '../../schemas/board.js';
 import { HAZARDS } from '../../schemas/tree.js';
 import { DEMO_BOARD_FILE, findCondition, findTestPoint, loadBoard, withSubstitutions } from '../../board/index.js';
 import { parseReading } from '../../units/index.js';
-import { rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
+import { defaultCacheDir, rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
+import { version } from '../run.js';
 
 const HELP = `Usage: voltwalk rank [--board FILE] [--condition NAME] --reading TP=VALUE ... [--set REF=VALUE]... [--json]
 
@@ -20,6 +21,8 @@ expected to narrow the suspects most. Suspects that no test point can tell apart
                       From another condition: CONDITION:TP=VALUE, e.g. unpowered:TP1=12k
   --set REF=VALUE     a part as fitted on this board, e.g. --set R7=22k (repeatable)
   --limit N           most suspects to list (default 10)
+  --no-cache          rebuild the fault dictionary instead of reusing the one kept from an earlier run
+                      (kept in $VOLTWALK_CACHE_DIR, else $XDG_CACHE_HOME/voltwalk or ~/.cache/voltwalk)
   --json              machine-readable output
 
 Examples:
@@ -41,6 +44,7 @@ export const command: Command = {
         set: { type: 'string', multiple: true },
         limit: { type: 'string' },
         json: { type: 'boolean' },
+        'no-cache': { type: 'boolean' },
       },
       false,
     );
@@ -55,7 +59,9 @@ export const command: Command = {
     if (!Number.isInteger(limit) || limit < 1) {
       throw new UserInputError({ code: 'rank.limit', path: '--limit', message: `"${values.limit}" is not a count`, accepted: 'a whole number ≥ 1, e.g. 5' });
     }
-    const result = rankSuspects(subject, readings, { limit });
+    // Building the dictionary takes the solver a while on a full board: keep it for the next run.
+    const diskCache = values['no-cache'] ? undefined : { dir: defaultCacheDir(io.env), version: version() };
+    const result = rankSuspects(subject, readings, { limit, diskCache });
     if (values.json) io.stdout(`${JSON.stringify(result, null, 2)}\n`);
     else io.stdout(toText(subject, readings, result));
     return 0;
