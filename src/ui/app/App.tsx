@@ -93,6 +93,15 @@ export function App({ boardFile, folder, cwd, wording, loadServices, onExit }: A
 
   const begin = (choice: StartChoice) => {
     if (!services || data.state !== 'ready') return;
+    if (choice.type === 'symptom' || choice.type === 'resume') {
+      // Starting a walk works out every expected reading on the board: say so before the wait.
+      dispatch({ type: 'notice', tone: 'quiet', text: 'Working out the expected readings for this board…' });
+      setTimeout(() => open(choice), 20);
+    } else dispatch({ type: 'show', screen: choice.type === 'parts' ? 'parts' : 'open-board' });
+  };
+
+  const open = (choice: StartChoice) => {
+    if (!services || data.state !== 'ready') return;
     const { board, trees, boardFile: file } = data.data;
     try {
       if (choice.type === 'symptom') {
@@ -107,8 +116,7 @@ export function App({ boardFile, folder, cwd, wording, loadServices, onExit }: A
         r.actor.start();
         setRun(r);
         dispatch({ type: 'show', screen: 'walk' });
-      } else if (choice.type === 'parts') dispatch({ type: 'show', screen: 'parts' });
-      else dispatch({ type: 'show', screen: 'open-board' });
+      }
     } catch (error) {
       dispatch({ type: 'notice', tone: 'bad', text: oneLine(error) });
     }

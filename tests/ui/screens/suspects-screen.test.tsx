@@ -1,0 +1,73 @@
+import React from 'react';
+import { describe, expect, it } from 'vitest';
+import { render } from 'ink-testing-library';
+import { SuspectsScreen } from '../../../src/ui/screens/SuspectsScreen.js';
+import { SummaryScreen } from '../../../src/ui/screens/SummaryScreen.js';
+import type { CaseSummary } from '../../../src/ui/case/case-summary.js';
+import { ENTER, press } from '../keys.js';
+
+// Demo numbers: a made-up case on a made-up board, only to check what the screen shows.
+const summary: CaseSummary = {
+  board: { id: 'demo', name: 'Demo' },
+  tree: { id: 'no-gr', symptom: 'No gain reduction' },
+  wording: 'technician',
+  finished: true,
+  substitutions: [],
+  readings: [],
+  answers: [],
+  skipped: [],
+  conclusion: { title: 'The control voltage never moves', advice: 'Check the threshold network first.', parts: ['R20'] },
+  suspects: [
+    { rank: 1, parts: ['R20'], faults: ['R20 open'], probability: 0.62, why: 'TP5 reads 0 V where 1.1 V is expected', where: ['below the threshold knob'] },
+    { rank: 2, parts: ['C7', 'R21'], faults: ['C7 short', 'R21 open'], probability: 0.3, why: 'both pull TP5 to ground', where: ['by U3'] },
+  ],
+  next: { testPoint: 'TP6', label: 'detector', condition: 'hot', conditionLabel: 'DC above threshold', probe: 'red on TP6', question: 'Measure TP6' },
+};
+
+const part = (ref: string) => ({ ref, where: `where ${ref} is`, value: ref === 'R20' ? '10 kΩ ±1 %' : undefined, bands: ref === 'R20' ? ['brown', 'black', 'black', 'red', 'brown'] : undefined });
+
+describe('suspects screen', () => {
+  it('lists what was found, the ranked suspects with reasons and places, groups that cannot be split, and the next probe', () => {
+    const { lastFrame } = render(
+      <SuspectsScreen width={80} title="voltwalk · Demo · No gain reduction" summary={summary} part={part} onSummary={() => {}} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />,
+    );
+    expect(lastFrame()).toBe(
+      [
+        'voltwalk · Demo · No gain reduction',
+        '',
+        'FOUND: The control voltage never moves',
+        'Check the threshold network first.',
+        '',
+        'Suspects, most likely first (from your readings):',
+        ' 1.  62 % R20 open',
+        '          TP5 reads 0 V where 1.1 V is expected',
+        '          R20 · 10 kΩ ±1 % · bands brown-black-black-red-brown · where R20 is',
+        ' 2.  30 % C7 short or R21 open (cannot tell apart yet)',
+        '          both pull TP5 to ground',
+        '          C7 · where C7 is',
+        '          R21 · where R21 is',
+        '',
+        'Next probe: TP6 detector under "DC above threshold" — red on TP6',
+        '',
+        's case summary for chat  ·  Esc back  ·  n new walk  ·  q quit',
+      ].join('\n'),
+    );
+  });
+
+  it('writes the case summary on s', async () => {
+    let asked = 0;
+    const { stdin } = render(<SuspectsScreen width={80} title="t" summary={summary} part={part} onSummary={() => asked++} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />);
+    await press(stdin, 's');
+    expect(asked).toBe(1);
+  });
+});
+
+describe('summary screen', () => {
+  it('shows the text as it will be pasted and where it was written', async () => {
+    let back = 0;
+    const { lastFrame, stdin } = render(<SummaryScreen width={80} text={'### case\n- TP1 ok\n'} file="/tmp/x.md" onBack={() => back++} onQuit={() => {}} />);
+    expect(lastFrame()).toBe(['Case summary — copy it into the chat', '', 'Written to /tmp/x.md', '', '### case', '- TP1 ok', '', 'Enter back  ·  q quit'].join('\n'));
+    await press(stdin, ENTER);
+    expect(back).toBe(1);
+  });
+});
