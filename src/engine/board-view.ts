@@ -26,7 +26,22 @@ export interface BandOptions {
   seed?: number;
 }
 
+const views = new WeakMap<Board, Map<string, BoardView>>();
+
+/**
+ * One view per board object and band options: bands depend only on those and the substitutions,
+ * so walks on the same board share the solved bands instead of solving them again.
+ */
 export function createBoardView(board: Board, options: BandOptions = {}): BoardView {
+  const key = `${options.samples ?? ''}/${options.seed ?? ''}`;
+  let byOptions = views.get(board);
+  if (!byOptions) views.set(board, (byOptions = new Map()));
+  let view = byOptions.get(key);
+  if (!view) byOptions.set(key, (view = buildBoardView(board, options)));
+  return view;
+}
+
+function buildBoardView(board: Board, options: BandOptions): BoardView {
   const memo = new Map<string, Band[]>();
   const bandsFor = (condition: string, substitutions: Substitutions): Band[] => {
     const key = `${condition}\u0000${JSON.stringify(Object.entries(substitutions).sort(([a], [b]) => a.localeCompare(b)))}`;

@@ -1,6 +1,5 @@
-import { formatValue } from '../units/index.js';
 import type { Transcript, TranscriptEntry } from './transcript.js';
-import type { PartView, WalkStep } from './step-view.js';
+import { showValue, type PartView, type WalkStep } from './step-view.js';
 
 export type Wording = 'technician' | 'customer';
 
@@ -11,7 +10,7 @@ function entryLines(e: TranscriptEntry, n: number, wording: Wording): string[] {
   const lines = [`${String(n).padStart(2)}. [${e.node}] ${e.kind}${where}${under}`, `    ${e.say[wording]}`];
   if (e.skipped) lines.push(`    skipped: ${e.skipped}`);
   if (e.reading && e.expected) {
-    lines.push(`    expected ${e.expected.text}; read ${formatValue(e.reading.value, e.expected.unit)} → ${e.reading.outcome}`);
+    lines.push(`    expected ${e.expected.text}; read ${showValue(e.reading.value, e.expected.unit)} → ${e.reading.outcome}`);
   }
   if (e.answer && !e.reading) lines.push(`    answer: ${e.answer.label}`);
   return lines;
@@ -66,4 +65,9 @@ export function formatTranscriptMarkdown(t: Transcript, wording: Wording = 'tech
   lines.push('', ...currentLines(t.current, wording).map((l, i) => (i === 0 ? `**${l}**` : l.startsWith('    ') ? `- ${l.trim()}` : l.trim())));
   if (t.stopped) lines.push('', `**Stopped at ${t.stopped.node}:** ${t.stopped.problem.message}`);
   return `${lines.join('\n')}\n`;
+}
+
+/** JSON.stringify replacer: JSON has no infinity, and an open circuit reads as one. */
+export function jsonNumbers(_key: string, value: unknown): unknown {
+  return typeof value === 'number' && !Number.isFinite(value) && !Number.isNaN(value) ? (value > 0 ? 'Infinity' : '-Infinity') : value;
 }

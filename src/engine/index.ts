@@ -7,9 +7,9 @@ export { createBoardView, type BoardView, type BandOptions, type Substitutions }
 export { compileTree, type StepPlan } from './compile-tree.js';
 export { createWalkMachine, walkMachineFor, routeReading, backTarget, type WalkOptions, type WalkSetup, type WalkMachine } from './walk-machine.js';
 export { SAFETY_HOLD, WalkContextSchema, type WalkContext, type WalkEvent, type ReadingRecord } from './walk-context.js';
-export { currentStep, readingEvent, answerEvent, substituteEvent, describeBand, type WalkStep, type PartView } from './step-view.js';
+export { currentStep, readingEvent, answerEvent, substituteEvent, describeBand, showValue, OVERLOAD, type WalkStep, type PartView } from './step-view.js';
 export { rankFor, walkReadings, type Ranking } from './ranking.js';
 export { transcriptOf, type Transcript, type TranscriptEntry } from './transcript.js';
 export { walkFromAnswers, type Answers } from './walk-from-answers.js';
-export { formatTranscriptText, formatTranscriptMarkdown, type Wording } from './format-transcript.js';
+export { formatTranscriptText, formatTranscriptMarkdown, jsonNumbers, type Wording } from './format-transcript.js';
 export { SESSION_FORMAT, SessionSchema, createSession, saveSession, loadSession, resumeWalk, digestOf, type Session } from './session.js';

@@ -22,6 +22,7 @@ export function walkReadings(context: WalkContext): Array<{ testPoint: string; c
 
 /** The ranked suspects for the readings so far, on the board as the person has it (substitutions applied). */
 export function rankFor(walk: WalkSetup, context: WalkContext): Ranking {
+  if (walk.options.ranking === false) return { note: 'ranking not asked for' };
   const readings = walkReadings(context);
   if (!readings.length) return { note: 'no readings yet, so no ranking of suspects' };
   try {

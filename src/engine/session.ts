@@ -6,6 +6,7 @@ import { UserInputError, type Problem } from '../errors.js';
 import type { Board } from '../schemas/board.js';
 import type { Tree } from '../schemas/tree.js';
 import { SAFETY_HOLD, WalkContextSchema } from './walk-context.js';
+import { jsonNumbers } from './format-transcript.js';
 import { createWalkMachine, type WalkOptions } from './walk-machine.js';
 
 export const SESSION_FORMAT = 'voltwalk-session/1';
@@ -68,7 +69,7 @@ export function createSession(tree: Tree, board: Board, snapshot: unknown, optio
 export function saveSession(file: string, session: Session): void {
   const temp = `${file}.${process.pid}.tmp`;
   try {
-    writeFileSync(temp, `${JSON.stringify(session, null, 2)}\n`);
+    writeFileSync(temp, `${JSON.stringify(session, jsonNumbers, 2)}\n`);
     renameSync(temp, file);
   } catch (error) {
     try {
@@ -83,11 +84,19 @@ export function saveSession(file: string, session: Session): void {
 const problem = (file: string, code: string, message: string, accepted: string, path?: string): UserInputError =>
   new UserInputError({ code, file, path, message, accepted } satisfies Problem);
 
+const NUMBER_KEYS = new Set(['value', 'nominal', 'min', 'max']);
+
+/** Undoes jsonNumbers for the numeric fields of readings and bands (and nowhere else). */
+function reviveNumbers(key: string, value: unknown): unknown {
+  if (NUMBER_KEYS.has(key) && (value === 'Infinity' || value === '-Infinity')) return value === 'Infinity' ? Infinity : -Infinity;
+  return value;
+}
+
 /** Reads a session file; a wrong version or a damaged file is a UserInputError, and the file is left as it is. */
 export function loadSession(file: string): Session {
   let raw: unknown;
   try {
-    raw = JSON.parse(readFileSync(file, 'utf8'));
+    raw = JSON.parse(readFileSync(file, 'utf8'), reviveNumbers);
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code;
     if (code === 'ENOENT') throw problem(file, 'session.missing', 'no such session file', 'a file written by voltwalk');

@@ -51,8 +51,18 @@ export interface WalkStep {
   blocked?: { node: string; missing: Array<{ hazard: Hazard; text: string }> };
 }
 
+/** What a person may type for a resistance the meter cannot show: the overload display. */
+export const OVERLOAD = /^\s*(ol|o\.l\.?|overload|open|inf(inity)?|∞)\s*$/i;
+
+/** A value as a person reads it; an infinite resistance is the meter's overload display. */
+export function showValue(value: number, unit: string): string {
+  return Number.isFinite(value) ? formatValue(value, unit) : 'overload (open)';
+}
+
 export function describeBand(band: ExpectedBand): string {
-  return `${formatValue(band.min, band.unit)} to ${formatValue(band.max, band.unit)} (nominal ${formatValue(band.nominal, band.unit)})`;
+  if (!Number.isFinite(band.min) && !Number.isFinite(band.max)) return `open: the meter shows overload (OL)`;
+  if (!Number.isFinite(band.max)) return `${showValue(band.min, band.unit)} or more, up to overload (nominal ${showValue(band.nominal, band.unit)})`;
+  return `${showValue(band.min, band.unit)} to ${showValue(band.max, band.unit)} (nominal ${showValue(band.nominal, band.unit)})`;
 }
 
 function partView(walk: WalkSetup, ref: string, context: WalkContext): PartView {
@@ -162,6 +172,8 @@ export function readingEvent(step: WalkStep, text: string): WalkEvent {
   if (step.kind !== 'measure' || !step.testPoint) {
     throw new UserInputError({ code: 'walk.not-a-measurement', path: step.node, message: `step "${step.node}" does not take a reading`, accepted: 'a reading only at a measure step' });
   }
+  // A meter on an open circuit shows overload ("OL", or a lone "1" on older meters) rather than a number.
+  if (step.testPoint.quantity === 'resistance' && OVERLOAD.test(text)) return { type: 'user.reading', value: Infinity, text };
   const value = parseReading(text, step.testPoint.quantity, `reading at ${step.testPoint.id} (${step.node})`);
   return { type: 'user.reading', value, text };
 }

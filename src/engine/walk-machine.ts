@@ -11,6 +11,8 @@ export interface WalkOptions extends BandOptions {
   oscilloscope?: boolean;
   /** Part values already changed on the board, designator -> value. */
   substitutions?: Record<string, number | string>;
+  /** Rank suspects at the conclusion (default true); off for quick replays that only need the tree's route. */
+  ranking?: boolean;
 }
 
 /** What the step view and the transcript need besides the machine: the tree, the board and the compiled plan. */

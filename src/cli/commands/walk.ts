@@ -4,9 +4,9 @@ import type { Command } from '../command.js';
 import { parseOptions } from '../args.js';
 import { UsageError, UserInputError } from '../../errors.js';
 import { DEMO_BOARD_FILE, loadBoard } from '../../board/index.js';
-import { findTree, formatTranscriptMarkdown, formatTranscriptText, loadTree, walkFromAnswers, type Answers } from '../../engine/index.js';
+import { findTree, jsonNumbers, formatTranscriptMarkdown, formatTranscriptText, loadTree, walkFromAnswers, type Answers } from '../../engine/index.js';
 
-const HELP = `Usage: voltwalk walk --tree NAME --answers FILE [--board FILE] [--set REF=VALUE]... [--json|--md] [--customer] [--oscilloscope] [--samples N]
+const HELP = `Usage: voltwalk walk --tree NAME --answers FILE [--board FILE] [--set REF=VALUE]... [--json|--md] [--customer] [--oscilloscope] [--samples N] [--no-ranking]
 
 Replays a diagnostic tree without the terminal UI. Each step's expected band is computed from the
 board's part values (after any --set); the transcript shows each step, the band, the reading and
@@ -26,6 +26,7 @@ the outcome, then the conclusion with the ranked suspects.
   --customer        prompts in customer wording
   --oscilloscope    the person has an oscilloscope (otherwise scope steps take their multimeter route)
   --samples N       Monte Carlo boards per band (default 1000; 0 = worst case only, faster)
+  --no-ranking      leave out the ranked suspects at the conclusion (faster: no fault dictionary)
 
 When a step has no answer, or an answer is wrong for its step (a typo in a reading, an unknown
 choice), the partial transcript is printed up to that step, the problem goes to stderr on one line
@@ -82,6 +83,7 @@ export const command: Command = {
         customer: { type: 'boolean' },
         oscilloscope: { type: 'boolean' },
         samples: { type: 'string' },
+        'no-ranking': { type: 'boolean' },
       },
       false,
     );
@@ -96,9 +98,9 @@ export const command: Command = {
     const board = loadBoard(values.board ? resolve(io.cwd, values.board) : DEMO_BOARD_FILE);
     const tree = values.tree.endsWith('.json') ? loadTree(resolve(io.cwd, values.tree)) : findTree(values.tree);
     const answers = readAnswers(resolve(io.cwd, values.answers));
-    const transcript = walkFromAnswers(tree, board, answers, { set: parseSets(values.set ?? []), oscilloscope: values.oscilloscope ?? false, samples });
+    const transcript = walkFromAnswers(tree, board, answers, { set: parseSets(values.set ?? []), oscilloscope: values.oscilloscope ?? false, samples, ranking: !values['no-ranking'] });
     const wording = values.customer ? 'customer' : 'technician';
-    if (values.json) io.stdout(`${JSON.stringify(transcript, null, 2)}\n`);
+    if (values.json) io.stdout(`${JSON.stringify(transcript, jsonNumbers, 2)}\n`);
     else if (values.md) io.stdout(formatTranscriptMarkdown(transcript, wording));
     else io.stdout(formatTranscriptText(transcript, wording));
     if (transcript.stopped) {
