@@ -1,5 +1,5 @@
 import type { Condition, Part, TestPoint } from '../schemas/board.js';
-import type { Hazard, Tree, TreeNode } from '../schemas/tree.js';
+import type { Hazard, MeasureNode, Tree, TreeNode } from '../schemas/tree.js';
 import type { BoardView } from './board-view.js';
 import { edgesOf } from './tree-graph.js';
 import { SAFETY_HOLD } from './walk-context.js';
@@ -20,6 +20,15 @@ export interface StepPlan {
 type Transition = { target?: string; guard?: { type: string; params?: object }; actions?: Array<{ type: string; params?: object }> };
 type StateConfig = { tags: string[]; meta: { node: string }; entry: Array<{ type: string; params?: object }>; always?: Transition[]; on?: Record<string, Transition[]> };
 
+/**
+ * Where a measurement nobody could take leads: on as if it were in band when the tree says where
+ * that is (the walk goes on to the next check rather than concluding a fault it never saw), else
+ * the default branch.
+ */
+export function skipBranch(node: MeasureNode): string {
+  return node.branches['in-band'] ?? node.branches.default;
+}
+
 function planStep(id: string, node: TreeNode, view: BoardView, oscilloscope: boolean): StepPlan {
   const plan: StepPlan = { id, node, parts: [] };
   const lacks = (what: string, role: string) => `this board has no ${what} for the role "${role}"`;
@@ -34,7 +43,7 @@ function planStep(id: string, node: TreeNode, view: BoardView, oscilloscope: boo
           : !view.band(plan.testPoint.id, plan.condition.id, {})
             ? `this board gives no expected value at ${plan.testPoint.id} under "${plan.condition.id}"`
             : undefined;
-      if (reason) plan.skip = { reason, to: node.branches.default };
+      if (reason) plan.skip = { reason, to: skipBranch(node) };
       break;
     }
     case 'setup':
@@ -89,7 +98,7 @@ function stateFor(plan: StepPlan): StateConfig {
           ...named.map(([branch, to]) => ({ target: to, guard: { type: 'routeIs', params: { node: id, branch } }, actions: record })),
           { target: node.branches.default, actions: record },
         ],
-        'user.skip': skipTo(node.branches.default),
+        'user.skip': skipTo(skipBranch(node)),
       };
       break;
     }

@@ -121,11 +121,18 @@ describe('walk machine: routing', () => {
     expect(step.skippedOnTheWay).toEqual([{ node: 'look', reason: expect.stringContaining('"input-opamp"') }]);
   });
 
-  it('the person may skip a measurement: it takes the default branch and is recorded', () => {
+  it('the person may skip a measurement: the walk goes on as if in band, and the skip is recorded', () => {
     const w = toPoweredMeasure();
     w.actor.send({ type: 'user.skip' });
-    expect(w.step().node).toBe('end-other');
+    expect(w.step().node).toBe('end-ok');
     expect(w.actor.getSnapshot().context.skipped.out).toBe('skipped by the person');
+  });
+
+  it('a skipped measurement with no in-band branch takes the default branch', () => {
+    const w = walkTo();
+    w.actor.send(answerEvent(w.step(), 'ok'));
+    w.actor.send({ type: 'user.skip' });
+    expect(w.step().node).toBe('warn');
   });
 
   it('works with the pure transition functions too', () => {
