@@ -1,13 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { bundledBoardFiles, loadBoard, measureAll } from '../../src/board/index.js';
-import { applyFault, buildDictionary, distinguishable, faultsFor, rankSuspects, type Reading } from '../../src/diagnosis/index.js';
+import { buildCircuit, bundledBoardFiles, loadBoard, measureAll } from '../../src/board/index.js';
+import { solveDC } from '../../src/circuit/index.js';
+import { applyFault, buildDictionary, distinguishable, faultsFor, meterAccuracy, rankSuspects, type Reading } from '../../src/diagnosis/index.js';
 
 /**
  * On every bundled board, a single injected fault is found: the fault is applied, the meter readings
  * simulated, and the tool takes probes itself (its own suggestions, one condition so the test stays
  * quick) until it is sure or has taken eight. The fault must end in the top 3 with a reason that
  * names a test point and a number. Faults chosen: the first of each listed mode that some reading
- * under that condition can tell apart from every other candidate.
+ * under that condition can tell apart from every other candidate. Readings carry a meter error.
  */
 const MODES = ['open', 'reversed', 'rotated', 'wrong-value'];
 const PROBES = 8;
@@ -32,7 +33,10 @@ for (const file of bundledBoardFiles()) {
 
     for (const fault of chosen) {
       it(`${fault.id}`, () => {
-        const truth = measureAll(applyFault(board, fault), condition);
+        // Solved from the healthy operating point, as the dictionary is; then a meter error within
+        // ±(0.5 % + 2 counts) (common DMM specification) so no reading sits exactly on a prediction.
+        const exact = measureAll(applyFault(board, fault), condition, { initial: solveDC(buildCircuit(board, condition).circuit) });
+        const truth = Object.fromEntries(Object.entries(exact).map(([tp, v]) => [tp, v + 0.6 * meterAccuracy(v, 'V')]));
         const readings: Reading[] = [];
         let result = rankSuspects(board, readings, { dictionary: dict });
         while (result.next && readings.length < PROBES && (result.groups[0]?.probability ?? 0) < 0.9) {
