@@ -1,7 +1,7 @@
 import type { Board } from '../../schemas/board.js';
 import { GROUND, type Circuit, type Element } from '../netlist.js';
-import { solveDC, type DcSolution } from '../index.js';
-import { buildCircuit, readResistance, readVoltage, testPointsFor } from '../../board/index.js';
+import { ConvergenceError, solveDC, type DcOptions, type DcSolution } from '../index.js';
+import { buildCircuit, FALLBACK_DC_OPTIONS, readResistance, readVoltage, testPointsFor } from '../../board/index.js';
 import { deviatedValue } from './deviation.js';
 import { boardDeviations, type PartDeviation } from './part-spreads.js';
 import type { Evaluate } from './worst-case.js';
@@ -28,6 +28,8 @@ interface Setup {
   condition: string;
   circuit: Circuit;
   nominal: DcSolution;
+  /** The solver options the nominal solve needed; samples use the same. */
+  options: DcOptions;
   /** One setter per deviation that touches this circuit. */
   setters: Array<{ index: number; set: (value: number) => void }>;
   /** Offset deviations and the − input node of the amplifier each one moves. */
@@ -66,7 +68,7 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
         const set = setterFor(circuit, partElements[d.part] ?? [], d);
         return set ? [{ index, set }] : [];
       });
-      const nominal = solveDC(circuit);
+      const { solution: nominal, options } = solveNominal(circuit);
       solves++;
       const readers = built.readings.map((r) => {
         outputs.push({ testPoint: r.testPoint, condition, node: r.node, unit: r.unit });
@@ -78,19 +80,11 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
         const amp = amps[d.target.amplifier];
         return amp ? [{ index, inverting: amp.nodes[1] }] : [];
       });
-      setups.push({ condition, circuit, nominal, setters, offsets, readers });
+      setups.push({ condition, circuit, nominal, options, setters, offsets, readers });
     }
   }
   const solveSetup = (setup: Setup, u: Float64Array, into: Float64Array, at: (output: number) => number) => {
-    for (const { index, set } of setup.setters) set(deviatedValue(deviations[index], u[index]));
-    solves++;
-    let s: DcSolution;
-    try {
-      s = solveDC(setup.circuit, { initial: offsetSeed(setup, deviations, u) });
-    } catch {
-      solves++;
-      s = solveDC(setup.circuit);
-    }
+    const s = solveAlongPath(setup, deviations, u, () => solves++);
     for (const r of setup.readers) into[at(r.output)] = r.read(s);
   };
   const evaluate: Evaluate = (u) => {
@@ -116,23 +110,76 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
 }
 
 /**
- * The nominal solution as a warm start, with each deviated op-amp's − input moved by its offset
- * change. An op-amp's open-loop gain is so high that an offset of a few millivolts applied to the
- * nominal solution drives its law deep into saturation, where Newton's linearisation is flat and
- * the iteration cycles; moving the − input with the offset starts every amplifier at the same
- * differential input as at nominal, inside its linear region, and one or two steps settle it.
+ * The nominal operating point and the options it took: the solver's defaults, else the board's
+ * fallbacks in turn (as solvePatiently tries them). Samples start from the options that worked, so
+ * a circuit that needs a larger GMIN does not pay for a failing default solve on every sample.
  */
-function offsetSeed(setup: Setup, deviations: PartDeviation[], u: Float64Array): DcSolution {
+function solveNominal(circuit: Circuit): { solution: DcSolution; options: DcOptions } {
+  let last: unknown;
+  for (const options of [{}, ...FALLBACK_DC_OPTIONS]) {
+    try {
+      return { solution: solveDC(circuit, options), options };
+    } catch (error) {
+      if (!(error instanceof ConvergenceError)) throw error;
+      last = error;
+    }
+  }
+  throw last;
+}
+
+/**
+ * Solves one circuit at deviation vector u, starting from the nominal solution.
+ *
+ * Newton alone, warm-started, settles most samples in one or two iterations. When it does not (a
+ * precision rectifier at rest sits on a knife edge between its diodes, and an offset of a few
+ * millivolts flips it), the deviation is applied in 2, 4, then 8 equal steps, each warm-started
+ * from the last (a continuation from the nominal board to the sample); only if that fails too is
+ * the circuit solved cold with every strategy and the board's fallbacks. Newton-only attempts
+ * fail fast, so a hard sample costs a few extra solves, not a full strategy list per step.
+ */
+const STEP_COUNTS = [1, 4];
+const NEWTON_ONLY: DcOptions = { skip: ['gmin', 'source'], maxIterations: 60 };
+
+function solveAlongPath(setup: Setup, deviations: PartDeviation[], u: Float64Array, counted: () => void): DcSolution {
+  const apply = (t: number) => {
+    for (const { index, set } of setup.setters) set(deviatedValue(deviations[index], t * u[index]));
+  };
+  for (const steps of STEP_COUNTS) {
+    let base = setup.nominal;
+    let reached = true;
+    for (let k = 1; k <= steps && reached; k++) {
+      apply(k / steps);
+      counted();
+      try {
+        base = solveDC(setup.circuit, { ...setup.options, ...NEWTON_ONLY, initial: offsetSeed(setup, deviations, u, base, (k - 1) / steps, k / steps) });
+      } catch (error) {
+        if (!(error instanceof ConvergenceError)) throw error;
+        reached = false;
+      }
+    }
+    if (reached) return base;
+  }
+  throw new ConvergenceError([], 'continuation', `no operating point reached along ${STEP_COUNTS.join(', ')} steps from nominal`);
+}
+
+/**
+ * A warm start for the step from t0·u to t1·u: the previous solution, with each deviated op-amp's
+ * − input moved by the step's change of offset. An op-amp's open-loop gain is so high that a few
+ * millivolts of offset applied to a settled solution drive its law deep into saturation, where
+ * Newton's linearisation is flat and the iteration cycles; moving the − input with the offset
+ * starts every amplifier at the differential input it had, inside its linear region.
+ */
+function offsetSeed(setup: Setup, deviations: PartDeviation[], u: Float64Array, base: DcSolution, t0: number, t1: number): DcSolution {
   let seed: DcSolution | undefined;
   for (const { index, inverting } of setup.offsets) {
     const d = deviations[index];
-    const shift = deviatedValue(d, u[index]) - d.nominal;
+    const shift = deviatedValue(d, t1 * u[index]) - deviatedValue(d, t0 * u[index]);
     if (shift === 0 || inverting === GROUND) continue;
-    seed ??= { ...setup.nominal, nodes: { ...setup.nominal.nodes }, unknowns: setup.nominal.unknowns && { ...setup.nominal.unknowns } };
+    seed ??= { ...base, nodes: { ...base.nodes }, unknowns: base.unknowns && { ...base.unknowns } };
     seed.nodes[inverting] = (seed.nodes[inverting] ?? 0) + shift;
     if (seed.unknowns && inverting in seed.unknowns) seed.unknowns[inverting] += shift;
   }
-  return seed ?? setup.nominal;
+  return seed ?? base;
 }
 
 interface Build {
