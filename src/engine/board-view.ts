@@ -1,5 +1,7 @@
 import { roleCondition, roleParts, roleTestPoint } from '../board/index.js';
 import { expectBands, type Band } from '../circuit/analysis/index.js';
+import { ConvergenceError } from '../circuit/index.js';
+import { UserInputError } from '../errors.js';
 import type { Board, Condition, Part, TestPoint } from '../schemas/board.js';
 import type { ConditionRole, PartRole, TestPointRole } from '../schemas/roles.js';
 import type { ExpectedBand } from './outcome.js';
@@ -16,6 +18,7 @@ export interface BoardView {
   testPoint(role: TestPointRole): TestPoint | undefined;
   condition(role: ConditionRole): Condition | undefined;
   parts(role: PartRole): Part[];
+  /** Undefined when the board has no band there, or the circuit cannot be solved with these part values. */
   band(testPoint: string, condition: string, substitutions: Substitutions): ExpectedBand | undefined;
   railVolts: number[];
 }
@@ -47,7 +50,14 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
     const key = `${condition}\u0000${JSON.stringify(Object.entries(substitutions).sort(([a], [b]) => a.localeCompare(b)))}`;
     let bands = memo.get(key);
     if (!bands) {
-      bands = expectBands(board, { condition, substitutions, samples: options.samples, seed: options.seed });
+      try {
+        bands = expectBands(board, { condition, substitutions, samples: options.samples, seed: options.seed });
+      } catch (error) {
+        // A changed part can leave the circuit unsolvable or invalid: the step then has no band
+        // (the step view says so and refuses readings) rather than the walk crashing.
+        if (!(error instanceof ConvergenceError || error instanceof UserInputError)) throw error;
+        bands = [];
+      }
       memo.set(key, bands);
     }
     return bands;

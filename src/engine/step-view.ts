@@ -172,7 +172,15 @@ export function readingEvent(step: WalkStep, text: string): WalkEvent {
   if (step.kind !== 'measure' || !step.testPoint) {
     throw new UserInputError({ code: 'walk.not-a-measurement', path: step.node, message: `step "${step.node}" does not take a reading`, accepted: 'a reading only at a measure step' });
   }
-  // A meter on an open circuit shows overload ("OL", or a lone "1" on older meters) rather than a number.
+  if (!step.expected) {
+    throw new UserInputError({
+      code: 'walk.no-band',
+      path: step.node,
+      message: `no expected value could be computed at ${step.testPoint.id} with the parts as changed, so this reading cannot be judged`,
+      accepted: 'undo the part change, or skip this step',
+    });
+  }
+  // A meter on an open circuit shows overload ("OL") rather than a number.
   if (step.testPoint.quantity === 'resistance' && OVERLOAD.test(text)) return { type: 'user.reading', value: Infinity, text };
   const value = parseReading(text, step.testPoint.quantity, `reading at ${step.testPoint.id} (${step.node})`);
   return { type: 'user.reading', value, text };

@@ -187,3 +187,25 @@ describe('walk machine: runtime safety guard', () => {
     expect(w.actor.getSnapshot().value).toBe(SAFETY_HOLD);
   });
 });
+
+describe('readings the engine cannot judge', () => {
+  it('accepts the overload display for an open resistance', () => {
+    const w = walkTo();
+    w.actor.send(answerEvent(w.step(), 'ok'));
+    expect(readingEvent(w.step(), 'OL')).toEqual({ type: 'user.reading', value: Infinity, text: 'OL' });
+    // a voltage step does not take "OL"
+    const v = toPoweredMeasure();
+    expect(() => readingEvent(v.step(), 'OL')).toThrow(UserInputError);
+  });
+
+  it('refuses a reading where no band could be computed, naming the step', () => {
+    const view = fakeView();
+    const { machine, walk } = walkMachineFor(smallTree(), { ...view, band: (tp, c, subs) => (subs.R1 ? undefined : view.band(tp, c, subs)) });
+    const actor = createActor(machine).start();
+    const step = () => currentStep(walk, actor.getSnapshot());
+    actor.send(answerEvent(step(), 'ok'));
+    actor.send(substituteEvent(walk, 'R1', '1k'));
+    expect(step().expected).toBeUndefined();
+    expect(() => readingEvent(step(), '10k')).toThrow(/no expected value could be computed at TP2/);
+  });
+});
