@@ -113,12 +113,17 @@ function reachabilityProblems(tree: Tree, file: string): Problem[] {
 function safetyProblems(tree: Tree, file: string): Problem[] {
   const problems: Problem[] = [];
   const cover = guaranteedCover(tree);
+  const missing = (id: string) => hazardsNeeded(tree.nodes[id]).filter((h) => !(cover.get(id) ?? new Set()).has(h));
+  const predecessors = new Map<string, string[]>();
+  for (const [id, node] of Object.entries(tree.nodes)) for (const e of edgesOf(node)) predecessors.set(e.to, [...(predecessors.get(e.to) ?? []), id]);
+  // One caution missing leaves every later powered step uncovered too: report only the first such
+  // step on each route (one whose predecessors do not already miss the same hazard).
+  const firstToMiss = (id: string, hazard: string) => !(predecessors.get(id) ?? []).every((p) => missing(p).includes(hazard as never));
   for (const [id, node] of Object.entries(tree.nodes)) {
     if (isPoweredStep(node) && !node.hazards.includes('rails')) {
       problems.push({ code: 'tree.safety', file, path: `nodes.${id}.hazards`, message: `powered step "${id}" does not declare the "rails" hazard`, accepted: `hazards including "rails" (known: ${Object.keys(HAZARDS).join(', ')})` });
     }
-    const covered = cover.get(id) ?? new Set();
-    for (const hazard of hazardsNeeded(node).filter((h) => !covered.has(h))) {
+    for (const hazard of missing(id).filter((h) => firstToMiss(id, h))) {
       const path = uncoveredPath(tree, id, hazard);
       problems.push({
         code: 'tree.safety',
