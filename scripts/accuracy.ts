@@ -14,6 +14,8 @@
  *   npm run accuracy                    every bundled board
  *   npm run accuracy -- --board FILE    one board file
  *   npm run accuracy -- --seed 7        another draw of tolerances and meter errors
+ *   npm run accuracy -- --conditions unpowered,quiescent,dc-injection-below-threshold
+ *                                       only these conditions (ids or condition roles) are in play
  */
 import { parseArgs } from 'node:util';
 import { bundledBoardFiles, loadBoard } from '../src/board/index.js';
@@ -33,7 +35,9 @@ import {
 } from '../src/diagnosis/index.js';
 import type { Board } from '../src/schemas/board.js';
 
-const { values } = parseArgs({ options: { board: { type: 'string', multiple: true }, seed: { type: 'string' }, budget: { type: 'string' } } });
+const { values } = parseArgs({
+  options: { board: { type: 'string', multiple: true }, seed: { type: 'string' }, budget: { type: 'string' }, conditions: { type: 'string' } },
+});
 const seed = Number(values.seed ?? 1);
 const files = values.board ?? bundledBoardFiles();
 const ISOLATED = 0.9;
@@ -64,12 +68,16 @@ const started = performance.now();
 
 for (const file of files) {
   const board = loadBoard(file);
-  const dict = buildDictionary(board);
+  const t0 = performance.now();
+  const conditions = values.conditions?.split(',').map((c) => board.roles.conditions[c as keyof typeof board.roles.conditions] ?? c);
+  const dict = buildDictionary(board, { conditions });
+  console.error(`${board.id}: dictionary of ${dict.faults.length} faults × ${new Set(dict.observables.map((o) => o.condition)).size} conditions in ${((performance.now() - t0) / 1000).toFixed(0)} s${dict.skippedConditions.length ? `; left out: ${dict.skippedConditions.join(', ')}` : ''}`);
   const candidates = dict.hypotheses.length;
   const budget = Number(values.budget ?? Math.ceil(Math.log2(candidates)) + 3);
   const rng = createRng(seed);
   dict.faults.forEach((fault, k) => {
     const h = k + 1;
+    if (k % 50 === 0) console.error(`  ${board.id}: fault ${k} of ${dict.faults.length}, ${((performance.now() - t0) / 1000).toFixed(0)} s`);
     const hyp = dict.hypotheses[h];
     const base = { board: board.id, fault: fault.id, mode: fault.mode };
     if (hyp.predictions.some(Number.isNaN)) return skipped.push({ ...base, why: 'unpredictable' });
@@ -133,7 +141,7 @@ const row = (name: string, ts: Trial[]) =>
   `| ${name} | ${ts.length} | ${pct(ts.filter((t) => t.top1).length, ts.length)} | ${pct(ts.filter((t) => t.top3).length, ts.length)} | ${mean(ts.map((t) => t.probes)).toFixed(2)} | ${pct(ts.filter((t) => t.isolated).length, ts.length)} |`;
 
 const lines: string[] = [];
-lines.push(`Fault-finding accuracy (seed ${seed}; ${files.length} board${files.length === 1 ? '' : 's'}; ${((performance.now() - started) / 1000).toFixed(1)} s)`);
+lines.push(`Fault-finding accuracy (seed ${seed}; ${files.length} board${files.length === 1 ? '' : 's'}; conditions: ${values.conditions ?? 'all'}; ${((performance.now() - started) / 1000).toFixed(1)} s)`);
 lines.push('');
 lines.push('| Fault mode | Faults | Top-1 | Top-3 | Mean probes | Isolated (≥ 90 %) |');
 lines.push('|---|---:|---:|---:|---:|---:|');

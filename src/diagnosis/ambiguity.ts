@@ -1,4 +1,4 @@
-import { spreadOf, type FaultDictionary } from './dictionary-model.js';
+import { spreadTable, type FaultDictionary } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
 /**
@@ -7,14 +7,14 @@ import { DEFAULT_METER, type MeterSpec } from './meter.js';
  * hypothesis the solver could not settle is never merged: nothing says it looks like another.
  */
 export function distinguishable(dict: FaultDictionary, a: number, b: number, meter: MeterSpec = DEFAULT_METER): boolean {
-  const ha = dict.hypotheses[a];
-  const hb = dict.hypotheses[b];
-  for (let i = 0; i < dict.observables.length; i++) {
-    const obs = dict.observables[i];
-    const sa = spreadOf(obs, ha, i, meter);
-    const sb = spreadOf(obs, hb, i, meter);
-    if (!sa || !sb) return true;
-    if (Math.abs(sa.centre - sb.centre) > sa.reach + sb.reach) return true;
+  const { centre, reach, width } = spreadTable(dict, meter);
+  const ka = a * width;
+  const kb = b * width;
+  for (let i = 0; i < width; i++) {
+    const ca = centre[ka + i];
+    const cb = centre[kb + i];
+    if (Number.isNaN(ca) || Number.isNaN(cb)) return true;
+    if (Math.abs(ca - cb) > reach[ka + i] + reach[kb + i]) return true;
   }
   return false;
 }

@@ -117,3 +117,35 @@ export function domainWidth(obs: Observable, meter: MeterSpec): number {
   if (obs.unit === 'V') return 2 * obs.span;
   return Math.log(meter.maxOhms + 1);
 }
+
+/** Every hypothesis's spread at every observable, worked out once per dictionary and meter (a dictionary is not changed once built). */
+export interface SpreadTable {
+  /** Index h * observables + i; NaN centre where the hypothesis predicts nothing. */
+  centre: Float64Array;
+  reach: Float64Array;
+  sigma: Float64Array;
+  width: number;
+}
+
+const tables = new WeakMap<FaultDictionary, Map<MeterSpec, SpreadTable>>();
+
+export function spreadTable(dict: FaultDictionary, meter: MeterSpec): SpreadTable {
+  let byMeter = tables.get(dict);
+  if (!byMeter) tables.set(dict, (byMeter = new Map()));
+  const found = byMeter.get(meter);
+  if (found) return found;
+  const width = dict.observables.length;
+  const size = dict.hypotheses.length * width;
+  const table: SpreadTable = { centre: new Float64Array(size), reach: new Float64Array(size), sigma: new Float64Array(size), width };
+  dict.hypotheses.forEach((h, k) => {
+    dict.observables.forEach((obs, i) => {
+      const s = spreadOf(obs, h, i, meter);
+      const at = k * width + i;
+      table.centre[at] = s ? s.centre : NaN;
+      table.reach[at] = s ? s.reach : NaN;
+      table.sigma[at] = s ? s.sigma : NaN;
+    });
+  });
+  byMeter.set(meter, table);
+  return table;
+}

@@ -1,4 +1,4 @@
-import { ACCESS_RANK, spreadOf, type FaultDictionary } from './dictionary-model.js';
+import { ACCESS_RANK, spreadTable, type FaultDictionary } from './dictionary-model.js';
 import { entropyBits } from './posterior.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
@@ -27,13 +27,13 @@ export interface ProbeOptions {
  * of the bin's first member. Returns, per hypothesis, its bin, or -1 when it predicts nothing there.
  */
 export function binsAt(dict: FaultDictionary, obsIndex: number, meter: MeterSpec = DEFAULT_METER, live?: number[]): { bin: Int32Array; count: number } {
-  const obs = dict.observables[obsIndex];
   const members = live ?? dict.hypotheses.map((_, i) => i);
   const bin = new Int32Array(dict.hypotheses.length).fill(-1);
+  const table = spreadTable(dict, meter);
   const placed: Array<{ h: number; centre: number; reach: number }> = [];
   for (const h of members) {
-    const s = spreadOf(obs, dict.hypotheses[h], obsIndex, meter);
-    if (s) placed.push({ h, centre: s.centre, reach: s.reach });
+    const at = h * table.width + obsIndex;
+    if (!Number.isNaN(table.centre[at])) placed.push({ h, centre: table.centre[at], reach: table.reach[at] });
   }
   placed.sort((a, b) => a.centre - b.centre);
   let count = 0;

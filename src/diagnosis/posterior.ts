@@ -1,5 +1,5 @@
 import { UserInputError } from '../errors.js';
-import { domainWidth, observableKey, spreadOf, toDomain, type FaultDictionary, type Reading } from './dictionary-model.js';
+import { domainWidth, observableKey, spreadTable, toDomain, type FaultDictionary, type Reading } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
 export interface PosteriorOptions {
@@ -37,11 +37,14 @@ export function logLikelihood(dict: FaultDictionary, h: number, obsIndex: number
   const outlier = options.outlier ?? DEFAULT_OUTLIER;
   const obs = dict.observables[obsIndex];
   const flat = 1 / domainWidth(obs, meter);
-  const spread = spreadOf(obs, dict.hypotheses[h], obsIndex, meter);
+  const table = spreadTable(dict, meter);
+  const at = h * table.width + obsIndex;
+  const centre = table.centre[at];
   // A hypothesis the solver could not settle predicts nothing: every reading is as likely as any other.
-  if (!spread) return Math.log(flat);
-  const z = (toDomain(obs, value, meter) - spread.centre) / spread.sigma;
-  const gauss = Math.exp(-0.5 * z * z) / (spread.sigma * Math.sqrt(2 * Math.PI));
+  if (Number.isNaN(centre)) return Math.log(flat);
+  const sigma = table.sigma[at];
+  const z = (toDomain(obs, value, meter) - centre) / sigma;
+  const gauss = Math.exp(-0.5 * z * z) / (sigma * Math.sqrt(2 * Math.PI));
   return Math.log((1 - outlier) * gauss + outlier * flat);
 }
 
