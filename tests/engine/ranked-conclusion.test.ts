@@ -1,0 +1,32 @@
+import { describe, expect, it } from 'vitest';
+import { loadBoard, measureAll } from '../../src/board/index.js';
+import { applyFault, faultsFor } from '../../src/diagnosis/index.js';
+import { findTree, walkFromAnswers, formatTranscriptText } from '../../src/engine/index.js';
+import { BOARDS_DIR } from '../../src/paths.js';
+import { join } from 'node:path';
+
+// The conclusion carries the ranking's suspects for the readings the walk took. Building the fault
+// dictionary for a board takes a while, hence the long timeout.
+describe('conclusion with ranked suspects', () => {
+  it('lists the injected fault among the ranked suspects beside the tree conclusion', () => {
+    const board = loadBoard(join(BOARDS_DIR, 'wenlow-nib.json'));
+    const fault = faultsFor(board).find((f) => f.id === 'D1/reversed')!;
+    const faulty = applyFault(board, fault);
+    const tree = findTree('first-power-up');
+    const answers: Record<string, string | boolean> = { 'current-limit': 'no' };
+    for (const [id, n] of Object.entries(tree.nodes)) {
+      if (n.kind === 'caution' || n.kind === 'setup') answers[id] = true;
+      else if (n.kind === 'inspect') answers[id] = 'ok';
+      else if (n.kind === 'measure') {
+        const v = measureAll(faulty, board.roles.conditions[n.condition]!)[board.roles.testPoints[n.testPoint]!];
+        answers[id] = Number.isFinite(v) ? v.toPrecision(4) : 'OL';
+      }
+    }
+    const t = walkFromAnswers(tree, board, answers, { samples: 0 });
+    const c = t.current.conclusion!;
+    expect(c.parts.map((p) => p.ref)).toContain('D1');
+    expect(c.suspects?.length).toBeGreaterThan(0);
+    expect(c.suspects!.map((s) => s.part)).toContain('D1');
+    expect(formatTranscriptText(t)).toContain('Ranked suspects (from the readings):');
+  }, 300_000);
+});
