@@ -169,6 +169,16 @@ describe('walk machine: runtime safety guard', () => {
     expect(w.actor.getSnapshot().context.readings.out).toBeUndefined();
   });
 
+  it('user.back leaves the hold for the step before it', () => {
+    const w = walkTo(unsafe());
+    w.actor.send(answerEvent(w.step(), 'ok'));
+    w.actor.send(readingEvent(w.step(), '10k'));
+    expect(w.step().kind).toBe('blocked');
+    w.actor.send({ type: 'user.back' });
+    expect(w.step().node).toBe('ohms');
+    expect(w.actor.getSnapshot().context.blocked).toBeNull();
+  });
+
   it('lets the same step through once the hazard was acknowledged in this session', () => {
     const { machine } = walkMachineFor(unsafe(), fakeView());
     const [s0] = initialTransition(machine);
