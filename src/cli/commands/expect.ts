@@ -52,12 +52,24 @@ export const command: Command = {
     const seed = wholeNumber(values.seed, '--seed', 1, -(2 ** 31));
     const substitutions = parseSets(values.set ?? []);
     const board = loadBoard(values.board !== undefined ? resolve(io.cwd, values.board) : DEMO_BOARD_FILE);
-    const report = expectReport(board, { condition: values.condition, substitutions, samples, seed });
+    // A whole board takes a while (one operating point per condition per sample): say how far it got,
+    // on the terminal only, so piped output stays clean.
+    let lastShown = 0;
+    const onProgress = io.isTTY
+      ? (done: number, total: number, phase: string) => {
+          const now = Date.now();
+          if (now - lastShown < 250 && done < total) return;
+          lastShown = now;
+          io.stderr(`\r${phase === 'monte-carlo' ? 'Monte Carlo' : 'worst case'}: ${done}/${total}   `);
+        }
+      : undefined;
+    const report = expectReport(board, { condition: values.condition, substitutions, samples, seed, onProgress });
+    if (onProgress) io.stderr('\r\x1b[K');
     if (values.json) {
-      io.stdout(`${JSON.stringify({ board: board.id, samples, seed, substitutions, testPoints: report.bands.map(jsonBand) }, null, 2)}\n`);
+      io.stdout(`${JSON.stringify({ board: board.id, samples, seed, substitutions, solves: report.solves, failures: report.failures, testPoints: report.bands.map(jsonBand) }, null, 2)}\n`);
     } else {
       io.stdout(table(board, report.bands, samples, seed, substitutions));
-      if (report.failures > 0) io.stderr(`voltwalk: ${report.failures} tolerance point(s) did not converge and were left out\n`);
+      if (report.failures > 0) io.stderr(`voltwalk: ${report.failures} tolerance point(s) could not be solved and were left out of the bands\n`);
     }
     return 0;
   },
@@ -98,7 +110,13 @@ function jsonBand(b: Band) {
   };
 }
 
-const show = (v: number, unit: string) => (Number.isFinite(v) ? formatValue(v, unit) : 'open (OL)');
+/**
+ * Below a microvolt no bench meter shows anything but zero (a handheld's finest DC range resolves
+ * 0.1 mV, common practice); printing "−2.55 pV" would only suggest a precision that is not there.
+ */
+const METER_FLOOR_VOLTS = 1e-6;
+const show = (v: number, unit: string) =>
+  !Number.isFinite(v) ? 'open (OL)' : unit === 'V' && Math.abs(v) < METER_FLOOR_VOLTS ? '0 V' : formatValue(v, unit);
 
 function table(board: Board, bands: Band[], samples: number, seed: number, subs: Record<string, string>): string {
   const lines: string[] = [`${board.name}: expected readings`];
