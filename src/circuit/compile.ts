@@ -35,6 +35,12 @@ export interface CompiledCircuit {
   vt: number;
   /** 1 at every matrix position any device can write. */
   pattern: Uint8Array;
+  /**
+   * Unknowns of circuit nodes (not device-internal ones): where gshunt and gmin stepping put their
+   * conductance to ground. Internal nodes always hang off a series resistance, and a shunt there
+   * would be a current no device reports, breaking the KCL check at the outer node.
+   */
+  shuntRows: Int32Array;
 }
 
 function createDevice(el: Element, alloc: Allocator, circuit: Circuit): Device {
@@ -116,5 +122,6 @@ export function compileCircuit(circuit: Circuit): CompiledCircuit {
   const pattern = stamper.pattern;
   for (let i = 0; i < size; i++) if (!isCurrent[i]) pattern[i * size + i] = 1;
 
-  return { circuit, size, unknownNames: names, isCurrent: Uint8Array.from(isCurrent), nodeIndex, devices, warnings, vt, pattern };
+  const shuntRows = Int32Array.from(nodeIndex.values());
+  return { circuit, size, unknownNames: names, isCurrent: Uint8Array.from(isCurrent), nodeIndex, devices, warnings, vt, pattern, shuntRows };
 }

@@ -26,6 +26,7 @@ export interface DcSolver {
 /** First diagonal conductance in gmin stepping, siemens, and the largest step factor. */
 const GMIN_STEP_START = 1e-2;
 const GMIN_STEP_FACTOR = 10;
+const GMIN_STEP_FACTOR_FAST = 1e4;
 const SOURCE_STEP_START = 0.01;
 
 export function createDcSolver(circuit: Circuit): DcSolver {
@@ -71,7 +72,8 @@ export function createDcSolver(circuit: Circuit): DcSolver {
       iterations += outcome.iterations;
       if (outcome.converged) {
         diag = next;
-        factor = Math.min(factor * Math.sqrt(factor), GMIN_STEP_FACTOR);
+        // Steps that settle at once can be much larger (the answer has stopped depending on gmin).
+        factor = outcome.iterations <= 4 ? Math.min(factor * factor, GMIN_STEP_FACTOR_FAST) : Math.min(factor * Math.sqrt(factor), GMIN_STEP_FACTOR);
       } else {
         x.set(saved);
         seedFrom(x);

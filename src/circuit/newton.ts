@@ -13,6 +13,12 @@ import { SparseLu } from './sparse-lu.js';
 import { KclChecker } from './kcl.js';
 import { SingularMatrixError, StampError } from './errors.js';
 
+/** Consecutive revisits after which an attempt is abandoned, and how many iterates are remembered. */
+const CYCLE_LIMIT = 6;
+const CYCLE_DEPTH = 8;
+/** "Back near" = within this fraction of the step just taken. */
+const CYCLE_RETURN = 0.5;
+
 export interface NewtonOutcome {
   converged: boolean;
   iterations: number;
@@ -27,6 +33,8 @@ export class NewtonEngine {
   readonly lu: SparseLu;
   readonly ctx: StampContext;
   private readonly xNew: Float64Array;
+  /** The last CYCLE_DEPTH iterates, oldest overwritten first, for spotting cycles. */
+  private readonly history: Float64Array[];
   private readonly moving: Uint8Array;
   private readonly kcl: KclChecker;
 
@@ -37,6 +45,7 @@ export class NewtonEngine {
     this.lu = new SparseLu(cc.size, cc.pattern);
     this.ctx = { x: new Float64Array(cc.size), vt: cc.vt, gmin: 1e-12, sourceScale: 1, limit: true, limited: 0 };
     this.xNew = new Float64Array(cc.size);
+    this.history = Array.from({ length: CYCLE_DEPTH }, () => new Float64Array(cc.size));
     this.moving = new Uint8Array(cc.size);
     this.kcl = new KclChecker(cc);
   }
@@ -58,7 +67,8 @@ export class NewtonEngine {
     if (shunt > 0) {
       const n = cc.size;
       const a = stamper.a;
-      for (let i = 0; i < n; i++) if (cc.isCurrent[i] === 0) a[i * n + i] += shunt;
+      const rows = cc.shuntRows;
+      for (let t = 0; t < rows.length; t++) a[rows[t] * (n + 1)] += shunt;
     }
     return ctx.limited;
   }
@@ -69,11 +79,28 @@ export class NewtonEngine {
     return violations.length === 0;
   }
 
+  private revisits(xNew: Float64Array, x: Float64Array, depth: number, opts: ResolvedDcOptions): boolean {
+    const n = this.cc.size;
+    const isCurrent = this.cc.isCurrent;
+    outer: for (let h = 0; h < depth; h++) {
+      const old = this.history[h];
+      for (let i = 0; i < n; i++) {
+        const xn = xNew[i];
+        const tol = opts.reltol * Math.abs(xn) + (isCurrent[i] ? opts.abstol : opts.vntol);
+        if (Math.abs(xn - old[i]) > CYCLE_RETURN * Math.abs(xn - x[i]) + tol) continue outer;
+      }
+      return true;
+    }
+    return false;
+  }
+
   run(x: Float64Array, opts: ResolvedDcOptions, diagGmin: number, sourceScale: number): NewtonOutcome {
     const n = this.cc.size;
     const { moving, xNew, stamper } = this;
     const isCurrent = this.cc.isCurrent;
     let stepSmall = false;
+    let cycling = 0;
+    const history = this.history;
     const fail = (iterations: number, detail: string, all = false): NewtonOutcome => {
       const unsettled: number[] = [];
       for (let i = 0; i < n; i++) if (all || moving[i]) unsettled.push(i);
@@ -108,12 +135,19 @@ export class NewtonEngine {
         const xn = xNew[i];
         const xo = x[i];
         if (!Number.isFinite(xn)) return fail(iter + 1, 'non-finite iterate', true);
-        const tol = opts.reltol * Math.max(Math.abs(xn), Math.abs(xo)) + (isCurrent[i] ? opts.abstol : opts.vntol);
+        const abs = isCurrent[i] ? opts.abstol : opts.vntol;
+        const tol = opts.reltol * Math.max(Math.abs(xn), Math.abs(xo)) + abs;
         if (Math.abs(xn - xo) > tol) {
           stepSmall = false;
           moving[i] = 1;
         }
       }
+      // A cycle (the new iterate lands back near one of the last few, with every unknown that
+      // moved within CYCLE_RETURN of its step) is not converging: give up on this attempt early
+      // and let the next strategy start.
+      cycling = !stepSmall && this.revisits(xNew, x, Math.min(iter, CYCLE_DEPTH), opts) ? cycling + 1 : 0;
+      if (cycling >= CYCLE_LIMIT) return fail(iter + 1, 'iterates cycling');
+      history[iter % CYCLE_DEPTH].set(x);
       x.set(xNew);
     }
     return fail(opts.maxIterations, 'iteration limit');
