@@ -7,8 +7,10 @@
  *
  * What this wrapper guards against, found by trying the engine:
  * - `runSim()` never throws. A netlist error shows up in `getError()` (with warnings and notes
- *   mixed in), and the result returned is whatever plot was current before — a stale answer. So
- *   every run gets a unique title, and the result's title and plot name are checked.
+ *   mixed in), and the result returned is whatever the last good run left in its raw file — a
+ *   stale answer. So every run gets a unique title, and the result's title and plot name are
+ *   checked. If no run has succeeded yet there is no raw file and `runSim()` never settles, so
+ *   starting includes one known-good run, and every run has a time limit.
  * - `getError()` also carries harmless notes (gmin stepping, unknown model parameters); only lines
  *   starting "Error" or saying the run was interrupted count as failure.
  * - Results name vectors `v(node)` and `i(source)`, lower case; nodes inside subcircuits appear as
@@ -28,9 +30,22 @@ export function startNgspice(): Promise<Simulation> {
   engine ??= (async () => {
     const sim = new Simulation();
     await sim.start();
+    sim.setNetList('warm-up\nv1 1 0 1\nr1 1 0 1\n.op\n.end\n');
+    await withTimeout(sim.runSim(), 'the warm-up run');
     return sim;
   })();
   return engine;
+}
+
+/** Longest a single run may take; a netlist ngspice struggles with fails the test instead of hanging it. */
+export const RUN_TIME_LIMIT_MS = 60_000;
+
+function withTimeout<T>(promise: Promise<T>, what: string): Promise<T> {
+  let timer: NodeJS.Timeout | undefined;
+  const limit = new Promise<never>((_, reject) => {
+    timer = setTimeout(() => reject(new NgspiceError(`ngspice did not finish ${what} within ${RUN_TIME_LIMIT_MS / 1000} s`, [])), RUN_TIME_LIMIT_MS);
+  });
+  return Promise.race([promise, limit]).finally(() => clearTimeout(timer));
 }
 
 export class NgspiceError extends Error {
@@ -68,7 +83,7 @@ export async function runNgspice(netlist: string, card: string, plotName: string
   const text = withAnalysis(netlist, title, card);
   const job = queue.then(async () => {
     sim.setNetList(text);
-    const result = await sim.runSim();
+    const result = await withTimeout(sim.runSim(), `"${netlist.split('\n')[0]}"`);
     return { result, log: sim.getError().filter((l) => l.trim() !== '') };
   });
   queue = job.catch(() => undefined);

@@ -39,7 +39,7 @@ const ACCEPTED_CARDS = '.model, .op, .ac, .temp, .end';
 const MODEL_TYPES: readonly ModelType[] = ['D', 'NPN', 'PNP'];
 const IGNORED_CARDS = new Set([
   '.tran', '.dc', '.noise', '.tf', '.sens', '.disto', '.pz', '.four', '.print', '.plot', '.save', '.probe',
-  '.meas', '.measure', '.width', '.option', '.options', '.opt', '.ic', '.nodeset', '.title',
+  '.meas', '.measure', '.width', '.option', '.options', '.opt', '.title',
 ]);
 
 class Reader {
@@ -309,6 +309,10 @@ function readCard(r: Reader, line: LogicalLine, tokens: string[]): void {
   }
   if (/^\.opt(ions?)?$/.test(card) && tokens.slice(1).every((t) => /^rshunt\s*=/i.test(t))) {
     // What our writer adds to mirror the solver's node shunt; the solver has its own.
+    return;
+  }
+  if (card === '.nodeset' || card === '.ic') {
+    r.warn(line.line, `${card} ignored: it only sets where ngspice starts iterating`);
     return;
   }
   if (IGNORED_CARDS.has(card)) {

@@ -28,6 +28,12 @@ export interface WriteNetlistOptions {
   analyses?: string[];
   /** Conductance from every node to ground, as the solver's `gshunt`; 0 writes no shunt. */
   gshunt?: number;
+  /**
+   * Starting guesses for ngspice (`.nodeset`), by circuit node — usually our own operating point.
+   * Some boards (the demo board among them) defeat ngspice's gmin and source stepping from 0 V;
+   * started near the answer, its Newton settles on its own solution of the same equations.
+   */
+  nodeset?: Record<string, number>;
 }
 
 const LETTER: Record<Exclude<Element['kind'], 'opamp' | 'pot' | 'switch'>, string> = {
@@ -180,6 +186,15 @@ export function writeNetlist(circuit: Circuit, options: WriteNetlistOptions = {}
   const gshunt = options.gshunt ?? DEFAULT_DC_OPTIONS.gshunt;
   if (gshunt > 0) out.push(`.options rshunt=${num(1 / gshunt)}`);
   if (circuit.temperatureC !== undefined) out.push(`.temp ${num(circuit.temperatureC)}`);
+  if (options.nodeset) {
+    const guesses = Object.entries(options.nodeset).filter(([node, v]) => node !== GROUND && nodeMap.has(node) && Number.isFinite(v));
+    if (guesses.length > 0) {
+      out.push('* starting guesses only: ngspice iterates from here to its own operating point');
+      for (let i = 0; i < guesses.length; i += 6) {
+        out.push(`${i === 0 ? '.nodeset' : '+'} ${guesses.slice(i, i + 6).map(([node, v]) => `v(${n(node)})=${num(v)}`).join(' ')}`);
+      }
+    }
+  }
   out.push(...(options.analyses ?? ['.op']));
   out.push('.end');
   return `${out.join('\n')}\n`;
