@@ -50,7 +50,8 @@ export const command: Command = {
     if (!tree) throw new UserInputError({ code: 'session.unknown-tree', file, path: 'treeId', message: `the session is on tree "${session.treeId}", which is not installed`, accepted: 'a session saved by this version of voltwalk' });
     const boardFile = values.board ? resolve(io.cwd, values.board) : (session.boardFile ?? DEMO_BOARD_FILE);
     const board = loadBoard(boardFile);
-    const { actor, walk } = resumeWalk(session, tree, board, {}, file);
+    // Readings were routed on worst-case bands; the Monte Carlo interval adds nothing to a summary.
+    const { actor, walk } = resumeWalk(session, tree, board, { samples: 0 }, file);
     const snapshot = actor.getSnapshot();
     const summary = buildCaseSummary(walk, { value: snapshot.value, context: snapshot.context }, values.customer ? 'customer' : 'technician');
     io.stdout(values.json ? `${JSON.stringify(summary, null, 2)}\n` : formatCaseSummary(summary, values.md ? 'md' : 'text'));

@@ -1,4 +1,4 @@
-import React, { useCallback, useEffect, useReducer, useState } from 'react';
+import React, { useCallback, useEffect, useReducer, useRef, useState } from 'react';
 import { Box, Text, useApp } from 'ink';
 import { writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
@@ -40,6 +40,18 @@ export function App({ boardFile, folder, cwd, wording, loadServices, onExit }: A
   const [data, setData] = useState<Data>({ state: 'loading' });
   const [run, setRun] = useState<Services.WalkRun | undefined>();
   const [, setVersion] = useState(0);
+  const [warm, setWarm] = useState<Services.WarmupState>({ state: 'working' });
+  const stopWarm = useRef<(() => void) | undefined>(undefined);
+  useEffect(() => () => stopWarm.current?.(), []);
+
+  const warmFor = (svc: ServicesModule, r: Services.WalkRun, substitutions: Record<string, string | number>) => {
+    stopWarm.current?.();
+    setWarm({ state: 'working' });
+    stopWarm.current = svc.warmDictionary(r.board, r.boardFile, substitutions, (s) => {
+      setWarm(s);
+      if (s.state === 'failed') dispatch({ type: 'notice', tone: 'bad', text: `ranking unavailable: ${s.problem}` });
+    });
+  };
 
   const quit = useCallback(() => {
     onExit?.(0);
@@ -109,11 +121,13 @@ export function App({ boardFile, folder, cwd, wording, loadServices, onExit }: A
         const r = services.startWalk(tree, board, file, state.substitutions, folder);
         r.actor.start();
         services.autosave(r);
+        warmFor(services, r, state.substitutions);
         setRun(r);
         dispatch({ type: 'show', screen: 'walk' });
       } else if (choice.type === 'resume') {
         const r = services.resumeFromFile(choice.file, trees, board, file);
         r.actor.start();
+        warmFor(services, r, services.contextOf(r).substitutions);
         setRun(r);
         dispatch({ type: 'show', screen: 'walk' });
       }
@@ -151,7 +165,7 @@ export function App({ boardFile, folder, cwd, wording, loadServices, onExit }: A
 
   let screen: React.ReactNode;
   if (state.screen === 'walk' && run && services) {
-    screen = <WalkView services={services} run={run} width={width} wording={state.wording} send={send} onSummary={writeSummary} onNewWalk={toStart} onQuit={quit} />;
+    screen = <WalkView services={services} run={run} width={width} wording={state.wording} ranking={warm.state} send={send} onSummary={writeSummary} onNewWalk={toStart} onQuit={quit} />;
   } else if (state.screen === 'summary' && state.summary) {
     screen = <SummaryScreen width={width} text={state.summary.text} file={state.summary.file} onBack={() => dispatch({ type: 'show', screen: 'walk' })} onQuit={quit} />;
   } else if (state.screen === 'open-board' && services) {

@@ -20,6 +20,8 @@ interface Props {
   run: WalkRun;
   width: number;
   wording: Wordings;
+  /** Whether the fault dictionary the ranking needs is built yet (see dictionary-warmup.ts). */
+  ranking: Services.WarmupState['state'];
   /** Sends an event to the walk; the caller saves the session before the next frame. */
   send: (event: Services.WalkEvent) => void;
   onSummary: () => void;
@@ -28,8 +30,10 @@ interface Props {
 }
 
 /** The walk's screens, one per kind of step, chosen from where the engine says the walk stands. */
-export function WalkView({ services, run, width, wording, send, onSummary, onNewWalk, onQuit }: Props) {
+export function WalkView({ services, run, width, wording, ranking, send, onSummary, onNewWalk, onQuit }: Props) {
   const [result, setResult] = useState<ReadingResult | undefined>();
+  const waiting = !result && ranking === 'working' && services.stepNeedsRanking(run);
+  if (waiting) return <RankingWait width={width} title={`voltwalk · ${run.board.name} · ${run.tree.symptom}`} onBack={() => send({ type: 'user.back' })} />;
   const step = services.stepOf(run);
   const board = run.board;
   const title = `voltwalk · ${board.name} · ${run.tree.symptom}`;
@@ -43,7 +47,7 @@ export function WalkView({ services, run, width, wording, send, onSummary, onNew
   const text = step.say[wording];
 
   if (result) {
-    return <ReadingResultScreen width={width} title={title} stageMap={stageMap} result={result} format={format} onContinue={() => setResult(undefined)} />;
+    return <ReadingResultScreen width={width} title={title} stageMap={<StageMap stages={stages} currentId={result.stage} width={width} />} result={result} format={format} onContinue={() => setResult(undefined)} />;
   }
   switch (step.kind) {
     case 'caution':
@@ -100,7 +104,7 @@ export function WalkView({ services, run, width, wording, send, onSummary, onNew
             if (!event.ok) return;
             send(event.value);
             const record = services.contextOf(run).readings[step.node];
-            if (record) setResult({ testPoint: record.testPoint, label: step.testPoint?.label ?? '', value: record.value, band: record.band, outcome: record.outcome });
+            if (record) setResult({ testPoint: record.testPoint, label: step.testPoint?.label ?? '', value: record.value, band: record.band, outcome: record.outcome, stage: stageId });
           }}
           onSkip={() => send({ type: 'user.skip' })}
           onBack={back}
@@ -145,6 +149,21 @@ export function WalkView({ services, run, width, wording, send, onSummary, onNew
     case 'blocked':
       return <Blocked width={width} title={title} text={text} onBack={back} />;
   }
+}
+
+/** Shown while the worker builds the fault dictionary; keys still work, so the person can go back or quit. */
+function RankingWait({ width, title, onBack }: { width: number; title: string; onBack: () => void }) {
+  useInput((_i, key) => {
+    if (key.escape) onBack();
+  });
+  return (
+    <Frame title={title} width={width} hints={[{ key: 'Esc', does: 'back' }, { key: 'Ctrl-C', does: 'quit, saved' }]}>
+      <Text>RANKING THE SUSPECTS…</Text>
+      <Text>Working out how every possible fault on this board would change each reading.</Text>
+      <Text>The first time on a board this takes a while; afterwards it comes from the cache.</Text>
+      <Text>Your answers are saved.</Text>
+    </Frame>
+  );
 }
 
 function Blocked({ width, title, text, onBack }: { width: number; title: string; text: string; onBack: () => void }) {

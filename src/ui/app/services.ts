@@ -53,8 +53,14 @@ export interface WalkRun {
   file: string;
 }
 
+/**
+ * The walk routes every reading on the worst-case band (min/max over all tolerances); the Monte
+ * Carlo interval is not used by the walk, so the screens skip it and a walk starts in seconds.
+ */
+export const WALK_BAND_OPTIONS = { samples: 0 } as const;
+
 export function startWalk(tree: Tree, board: Board, boardFile: string, substitutions: Record<string, string | number>, folder: string): WalkRun {
-  const { machine, walk } = createWalkMachine(tree, board, { substitutions });
+  const { machine, walk } = createWalkMachine(tree, board, { ...WALK_BAND_OPTIONS, substitutions });
   mkdirSync(folder, { recursive: true });
   const file = newSessionFile(folder, tree.id, new Date(), existsSync);
   const actor = createActor(machine);
@@ -69,7 +75,7 @@ export function resumeFromFile(file: string, trees: Tree[], board: Board, boardF
   }
   // A session remembers the board file it ran on; reopen that one when it differs from the open board.
   const onBoard = session.boardFile && session.boardFile !== boardFile ? loadBoard(session.boardFile) : board;
-  const made = resumeWalk(session, tree, onBoard, {}, file);
+  const made = resumeWalk(session, tree, onBoard, WALK_BAND_OPTIONS, file);
   return { actor: made.actor, walk: made.walk, tree, board: onBoard, boardFile: session.boardFile ?? boardFile, file };
 }
 
@@ -97,3 +103,14 @@ export type { WalkStep, WalkEvent, Session, Tree, Board };
 export { buildCaseSummary } from '../case/case-summary.js';
 export { formatCaseSummary } from '../case/format-case-summary.js';
 export { partValue as partValueOf } from '../../board/index.js';
+export { warmDictionary, type WarmupState } from './dictionary-warmup.js';
+
+/** Whether showing the current step runs the ranking (a conclusion, or a step that suggests a probe once readings exist). */
+export function stepNeedsRanking(run: WalkRun): boolean {
+  const snap = run.actor.getSnapshot();
+  const node = run.walk.plans[String(snap.value)]?.node;
+  const context = snap.context as WalkContext;
+  const readings = Object.keys(context.readings).length + context.extraReadings.length;
+  if (readings === 0 || !node) return false;
+  return node.kind === 'conclude' || (node.kind === 'measure' && node.suggestProbe);
+}

@@ -13,6 +13,8 @@ export interface ReadingResult {
   band: ExpectedBand;
   /** The engine's outcome word: in-band, low, high, stuck-at-rail, near-zero. */
   outcome: string;
+  /** The stage the test point belongs to, for the stage map. */
+  stage?: string;
 }
 
 interface Props {
