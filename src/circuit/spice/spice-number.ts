@@ -68,5 +68,5 @@ export function readSpiceNumber(text: string): SpiceNumber | undefined {
 /** Formats a number so SPICE reads it back exactly (shortest round-trip form, no scale suffix). */
 export function formatSpiceNumber(value: number): string {
   if (!Number.isFinite(value)) throw new RangeError(`not a finite number: ${value}`);
-  return String(value);
+  return Object.is(value, -0) ? '-0' : String(value);
 }
