@@ -1,3 +1,4 @@
+import { DEFAULT_METER, meterAccuracy, type MeterSpec } from '../diagnosis/index.js';
 import type { MeasureNode, Outcome } from '../schemas/tree.js';
 
 /** The expected reading at one test point under one condition, from the board's part values. */
@@ -20,13 +21,19 @@ export const NEAR_ZERO_V = 0.05;
 export const NEAR_ZERO_OHMS = 1;
 
 /**
- * Sorts a reading against its band. In-band wins over everything, so an op-amp output that is
- * meant to sit near 0 V is not called "near-zero"; then a rail, then nothing, then low/high.
+ * Sorts a reading against its band. The band is widened by the meter's own accuracy at each edge
+ * (±(0.5 % + 2 counts) by default, a handheld DMM's usual DC specification: common practice,
+ * REFERENCES.md), so a good board read on an ordinary meter is never called out of band.
+ * In-band wins over everything, so an op-amp output meant to sit near 0 V is not "near-zero";
+ * then a rail (unless the band itself sits at that rail: a rail test point reading a little high
+ * is "high", not "stuck"), then nothing, then low/high.
  */
-export function classifyReading(value: number, band: ExpectedBand, railVolts: number[]): Outcome {
-  if (value >= band.min && value <= band.max) return 'in-band';
+export function classifyReading(value: number, band: ExpectedBand, railVolts: number[], meter: MeterSpec = DEFAULT_METER): Outcome {
+  const slack = (edge: number) => (Number.isFinite(edge) ? meterAccuracy(edge, band.unit, meter) : 0);
+  if (value >= band.min - slack(band.min) && value <= band.max + slack(band.max)) return 'in-band';
   if (band.unit === 'V') {
-    if (railVolts.some((r) => Math.abs(value - r) <= RAIL_WINDOW_V && Math.abs(r) > RAIL_WINDOW_V)) return 'stuck-at-rail';
+    const nearRail = (v: number, r: number) => Math.abs(v - r) <= RAIL_WINDOW_V && Math.abs(r) > RAIL_WINDOW_V;
+    if (railVolts.some((r) => nearRail(value, r) && !nearRail(band.nominal, r))) return 'stuck-at-rail';
     if (Math.abs(value) < NEAR_ZERO_V) return 'near-zero';
   } else if (value < NEAR_ZERO_OHMS) {
     return 'near-zero';

@@ -26,7 +26,9 @@ export function rankFor(walk: WalkSetup, context: WalkContext): Ranking {
   const readings = walkReadings(context);
   if (!readings.length) return { note: 'no readings yet, so no ranking of suspects' };
   try {
-    const { suspects, next } = rankSuspects(walk.view.board, readings, { substitutions: context.substitutions });
+    // The dictionary covers the conditions this walk measures in (one build per tree and board), not every condition of the board.
+    const conditions = [...new Set([...Object.values(walk.plans).flatMap((p) => (p.node.kind === 'measure' && p.condition && !p.skip ? [p.condition.id] : [])), ...readings.map((r) => r.condition)])];
+    const { suspects, next } = rankSuspects(walk.view.board, readings, { substitutions: context.substitutions, conditions });
     return { suspects, next };
   } catch (error) {
     // A ranking is advice beside the tree's conclusion; if it cannot be computed the walk still stands.
