@@ -54,12 +54,15 @@ export interface BoardEvaluator {
   perCondition: ConditionEvaluator[];
   /** Operating points solved so far. */
   solves: () => number;
+  /** Circuits whose nominal operating point could not be found: their test points have no output. */
+  unsolved: Array<{ condition: string; testPoints: string[]; reason: string }>;
 }
 
 export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluator {
   const deviations = boardDeviations(board);
   const outputs: BoardOutput[] = [];
   const setups: Setup[] = [];
+  const unsolved: BoardEvaluator['unsolved'] = [];
   let solves = 0;
   for (const condition of conditions) {
     for (const built of buildsFor(board, condition)) {
@@ -68,8 +71,16 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
         const set = setterFor(circuit, partElements[d.part] ?? [], d);
         return set ? [{ index, set }] : [];
       });
-      const { solution: nominal, options } = solveNominal(circuit);
       solves++;
+      let solved: { solution: DcSolution; options: DcOptions };
+      try {
+        solved = solveNominal(circuit);
+      } catch (error) {
+        if (!(error instanceof ConvergenceError)) throw error;
+        unsolved.push({ condition, testPoints: built.readings.map((r) => r.testPoint), reason: error.message });
+        continue;
+      }
+      const { solution: nominal, options } = solved;
       const readers = built.readings.map((r) => {
         outputs.push({ testPoint: r.testPoint, condition, node: r.node, unit: r.unit });
         return { output: outputs.length - 1, read: r.read };
@@ -106,7 +117,7 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
       },
     };
   });
-  return { deviations, outputs, evaluate, perCondition, solves: () => solves };
+  return { deviations, outputs, evaluate, perCondition, solves: () => solves, unsolved };
 }
 
 /**

@@ -59,6 +59,8 @@ export interface ExpectReport {
   variables: number;
   /** Points or samples that did not converge and were left out. */
   failures: number;
+  /** Test points with no band because the healthy board itself could not be solved there. */
+  unsolved: Array<{ condition: string; testPoints: string[]; reason: string }>;
 }
 
 export function expectBands(board: Board, options: ExpectOptions = {}): Band[] {
@@ -83,6 +85,7 @@ export function expectReport(board: Board, options: ExpectOptions = {}): ExpectR
   const max = new Float64Array(ev.outputs.length);
   let failures = 0;
   ev.perCondition.forEach((pc) => {
+    if (pc.outputs.length === 0) return;
     const wc = worstCase(n, pc.evaluate, { onProgress: (d, t) => options.onProgress?.(d, t, 'worst-case') });
     failures += wc.failures;
     pc.outputs.forEach((o, k) => {
@@ -92,7 +95,7 @@ export function expectReport(board: Board, options: ExpectOptions = {}): ExpectR
     });
   });
   const mc =
-    samples > 0
+    samples > 0 && ev.outputs.length > 0
       ? monteCarlo(
           ev.deviations.map((d) => d.distribution),
           ev.evaluate,
@@ -110,7 +113,7 @@ export function expectReport(board: Board, options: ExpectOptions = {}): ExpectR
     }
     return band;
   });
-  return { bands, solves: ev.solves(), variables: n, failures };
+  return { bands, solves: ev.solves(), variables: n, failures, unsolved: ev.unsolved };
 }
 
 function checkCondition(board: Board, condition: string): string {

@@ -66,9 +66,10 @@ export const command: Command = {
     const report = expectReport(board, { condition: values.condition, substitutions, samples, seed, onProgress });
     if (onProgress) io.stderr('\r\x1b[K');
     if (values.json) {
-      io.stdout(`${JSON.stringify({ board: board.id, samples, seed, substitutions, solves: report.solves, failures: report.failures, testPoints: report.bands.map(jsonBand) }, null, 2)}\n`);
+      io.stdout(`${JSON.stringify({ board: board.id, samples, seed, substitutions, solves: report.solves, failures: report.failures, unsolved: report.unsolved, testPoints: report.bands.map(jsonBand) }, null, 2)}\n`);
     } else {
       io.stdout(table(board, report.bands, samples, seed, substitutions));
+      for (const u of report.unsolved) io.stderr(`voltwalk: no band for ${u.testPoints.join(', ')} in ${u.condition}: the healthy board could not be solved there (${u.reason})\n`);
       if (report.failures > 0) io.stderr(`voltwalk: ${report.failures} tolerance point(s) could not be solved and were left out of the bands\n`);
     }
     return 0;
