@@ -15,7 +15,7 @@ import { createDcSolver, type DcSolver } from './dc-solver.js';
 import type { DcSolution } from './dc-solution.js';
 import { resolveDcOptions } from './options.js';
 import { ComplexStamper } from './complex-stamper.js';
-import { solveComplexDense } from './complex-lu.js';
+import { ComplexSparseLu } from './complex-sparse-lu.js';
 import { badValue } from './check-values.js';
 
 export interface AcPhasor {
@@ -37,6 +37,8 @@ export interface AcOptions {
 
 export interface AcSolver {
   readonly op: DcSolution;
+  /** How many pivot plans the complex factorisation has made (re-plans show up here). */
+  readonly plansMade: () => number;
   solve(frequencyHz: number): AcSolution;
 }
 
@@ -55,22 +57,27 @@ export function createAcSolver(circuit: Circuit, options: AcOptions = {}, dc: Dc
   const x = dc.x.slice();
   dc.engine.stampAt(x, opts, 0, 1, false);
   const jacobian = dc.engine.stamper.a.slice();
+  const lu = new ComplexSparseLu(n, cc.pattern);
+  const cs = new ComplexStamper(n);
 
   return {
     op,
+    plansMade: () => lu.plansMade,
     solve(frequencyHz: number): AcSolution {
       if (typeof frequencyHz !== 'number' || !Number.isFinite(frequencyHz) || frequencyHz < 0) {
         throw badValue('ac', 'frequency', frequencyHz, 'a frequency in hertz ≥ 0');
       }
       const omega = 2 * Math.PI * frequencyHz;
-      const cs = new ComplexStamper(n);
       cs.re.set(jacobian);
+      cs.im.fill(0);
+      cs.bRe.fill(0);
+      cs.bIm.fill(0);
       for (const d of cc.devices) {
         if (!d.stampAc) continue;
         cs.owner = d.name;
         d.stampAc(cs, omega);
       }
-      const { re, im } = solveComplexDense(n, cs.re, cs.im, cs.bRe, cs.bIm);
+      const { re, im } = lu.solve(cs.re, cs.im, cs.bRe, cs.bIm);
       const nodes: Record<string, AcPhasor> = { [GROUND]: phasor(0, 0) };
       for (const [name, i] of cc.nodeIndex) nodes[name] = phasor(re[i], im[i]);
       return { frequency: frequencyHz, nodes };
