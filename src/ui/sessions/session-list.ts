@@ -40,6 +40,7 @@ export function listSessions<S>(folder: string, load: (file: string) => S, isFin
 }
 
 function oneLine(error: unknown): string {
-  if (error instanceof UserInputError) return error.message.split('\n')[0];
+  // The file name is shown beside the reason, so only the problem's own words are kept.
+  if (error instanceof UserInputError) return error.problems[0].message;
   return error instanceof Error ? error.message.split('\n')[0] : String(error);
 }
