@@ -125,6 +125,8 @@ export interface SpreadTable {
   reach: Float64Array;
   sigma: Float64Array;
   width: number;
+  /** Per observable, the hypotheses that predict something there, in order of predicted value (filled on first use). */
+  order: Array<Int32Array | undefined>;
 }
 
 const tables = new WeakMap<FaultDictionary, Map<MeterSpec, SpreadTable>>();
@@ -136,7 +138,7 @@ export function spreadTable(dict: FaultDictionary, meter: MeterSpec): SpreadTabl
   if (found) return found;
   const width = dict.observables.length;
   const size = dict.hypotheses.length * width;
-  const table: SpreadTable = { centre: new Float64Array(size), reach: new Float64Array(size), sigma: new Float64Array(size), width };
+  const table: SpreadTable = { centre: new Float64Array(size), reach: new Float64Array(size), sigma: new Float64Array(size), width, order: [] };
   dict.hypotheses.forEach((h, k) => {
     dict.observables.forEach((obs, i) => {
       const s = spreadOf(obs, h, i, meter);
@@ -148,4 +150,16 @@ export function spreadTable(dict: FaultDictionary, meter: MeterSpec): SpreadTabl
   });
   byMeter.set(meter, table);
   return table;
+}
+
+/** Hypotheses predicting something at one observable, sorted by their predicted value. */
+export function orderAt(table: SpreadTable, hypotheses: number, obsIndex: number): Int32Array {
+  const cached = table.order[obsIndex];
+  if (cached) return cached;
+  const list: number[] = [];
+  for (let h = 0; h < hypotheses; h++) if (!Number.isNaN(table.centre[h * table.width + obsIndex])) list.push(h);
+  list.sort((a, b) => table.centre[a * table.width + obsIndex] - table.centre[b * table.width + obsIndex]);
+  const order = Int32Array.from(list);
+  table.order[obsIndex] = order;
+  return order;
 }

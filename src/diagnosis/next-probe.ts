@@ -1,4 +1,4 @@
-import { ACCESS_RANK, spreadTable, type FaultDictionary } from './dictionary-model.js';
+import { ACCESS_RANK, orderAt, spreadTable, type FaultDictionary } from './dictionary-model.js';
 import { entropyBits } from './posterior.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
@@ -27,49 +27,70 @@ export interface ProbeOptions {
  * of the bin's first member. Returns, per hypothesis, its bin, or -1 when it predicts nothing there.
  */
 export function binsAt(dict: FaultDictionary, obsIndex: number, meter: MeterSpec = DEFAULT_METER, live?: number[]): { bin: Int32Array; count: number } {
-  const members = live ?? dict.hypotheses.map((_, i) => i);
-  const bin = new Int32Array(dict.hypotheses.length).fill(-1);
+  const n = dict.hypotheses.length;
+  const inPlay = live ? maskOf(live, n) : undefined;
+  const bin = new Int32Array(n).fill(-1);
   const table = spreadTable(dict, meter);
-  const placed: Array<{ h: number; centre: number; reach: number }> = [];
-  for (const h of members) {
-    const at = h * table.width + obsIndex;
-    if (!Number.isNaN(table.centre[at])) placed.push({ h, centre: table.centre[at], reach: table.reach[at] });
-  }
-  placed.sort((a, b) => a.centre - b.centre);
+  const order = orderAt(table, n, obsIndex);
   let count = 0;
-  let start: { centre: number; reach: number } | undefined;
-  for (const p of placed) {
-    if (!start || p.centre - start.centre > start.reach + p.reach) {
-      start = p;
+  let startCentre = 0;
+  let startReach = 0;
+  for (let k = 0; k < order.length; k++) {
+    const h = order[k];
+    if (inPlay && !inPlay[h]) continue;
+    const at = h * table.width + obsIndex;
+    if (count === 0 || table.centre[at] - startCentre > startReach + table.reach[at]) {
+      startCentre = table.centre[at];
+      startReach = table.reach[at];
       count++;
     }
-    bin[p.h] = count - 1;
+    bin[h] = count - 1;
   }
   return { bin, count };
+}
+
+function maskOf(members: number[], n: number): Uint8Array {
+  const mask = new Uint8Array(n);
+  for (const h of members) mask[h] = 1;
+  return mask;
 }
 
 /**
  * Expected entropy of the hypotheses after reading one observable (one-step look-ahead, the
  * minimum-entropy measurement choice of de Kleer & Williams, Artificial Intelligence 32, 1987).
  * A hypothesis that predicts nothing there is spread evenly over the bins.
+ *
+ * Worked per bin from two sums, the mass T and Σ p·log2 p, since the entropy of the normalised
+ * bin is log2 T − (Σ p·log2 p)/T; the expectation Σ T·H is then Σ (T·log2 T − Σ p·log2 p).
  */
 export function expectedEntropyAfter(dict: FaultDictionary, probabilities: number[], obsIndex: number, meter: MeterSpec = DEFAULT_METER, live?: number[]): number {
   const members = live ?? dict.hypotheses.map((_, i) => i);
   const { bin, count } = binsAt(dict, obsIndex, meter, members);
   const bins = Math.max(count, 1);
-  const mass: number[][] = Array.from({ length: bins }, () => []);
+  const mass = new Float64Array(bins);
+  const plogp = new Float64Array(bins);
+  let loose = 0;
+  let looseLog = 0;
   for (const h of members) {
     const p = probabilities[h];
     if (!(p > 0)) continue;
-    if (bin[h] >= 0) mass[bin[h]].push(p);
-    else for (const m of mass) m.push(p / bins);
+    const b = bin[h];
+    if (b >= 0) {
+      mass[b] += p;
+      plogp[b] += p * Math.log2(p);
+    } else {
+      loose += p;
+      looseLog += p * Math.log2(p / bins);
+    }
   }
   let expected = 0;
-  for (const m of mass) {
-    const total = m.reduce((a, b) => a + b, 0);
-    if (total > 0) expected += total * entropyBits(m.map((p) => p / total));
+  for (let b = 0; b < bins; b++) {
+    // Each unpredictable hypothesis puts p/bins in every bin.
+    const total = mass[b] + loose / bins;
+    const sum = plogp[b] + looseLog / bins;
+    if (total > 0) expected += total * Math.log2(total) - sum;
   }
-  return expected;
+  return Math.max(expected, 0);
 }
 
 /** The unmeasured observable whose reading is expected to leave the least uncertainty. */

@@ -55,10 +55,10 @@ export function logLikelihood(dict: FaultDictionary, h: number, obsIndex: number
  */
 export function posterior(dict: FaultDictionary, readings: Reading[], options: PosteriorOptions = {}): number[] {
   const where = locateReadings(dict, readings);
-  const logs = dict.hypotheses.map((h, i) => {
-    let sum = Math.log(Math.max(h.prior, 0));
-    for (let k = 0; k < readings.length; k++) sum += logLikelihood(dict, i, where[k], readings[k].value, options);
-    return sum;
+  const logs = dict.hypotheses.map((h) => Math.log(Math.max(h.prior, 0)));
+  // Reading by reading: the reading's place in the comparison domain is worked out once.
+  readings.forEach((r, k) => {
+    for (let i = 0; i < logs.length; i++) logs[i] += logLikelihood(dict, i, where[k], r.value, options);
   });
   return normaliseLogs(logs);
 }
