@@ -92,7 +92,7 @@ export async function matchesNgspice(b: Board, condition: string): Promise<void>
       ...railNets.map((net, i) => ({ kind: 'vsource' as const, name: `vheld${i}`, nodes: [built.netNode(net), '0'] as [string, string], dc: full.nodes[built.netNode(net)] })),
     ],
   };
-  const ours = solveDC(held);
+  const ours = solveDC(held, { initial: full });
   const ref = await ngspiceOp(writeNetlist(held));
   const names = spiceNodeNames(held);
   for (const tp of b.testPoints.filter((t) => t.quantity === 'voltage')) {

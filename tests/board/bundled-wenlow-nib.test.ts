@@ -185,7 +185,7 @@ describe('wenlow-nib: hand analysis, stage by stage', () => {
     expect(Math.abs(at('dc-high').TP19 - at('dc-high').TP10)).toBeLessThan(1e-3);
   });
 
-  it('output LED: dark below ≈0.6 V of base drive, lit at (V+ − Vf − Vce)/R25', () => {
+  it('output LED: dark below ≈0.6 V of base drive; lit, its current shows across R25', () => {
     for (const cond of ['dc-low', 'dc-high']) {
       const r = at(cond);
       // Q3 off: the base is the R23/R24 divider of the output. 1.71 V × 10k/32k = 0.534 V. Tolerance 2 mV.
@@ -193,14 +193,21 @@ describe('wenlow-nib: hand analysis, stage by stage', () => {
     }
     for (const cond of ['dc-high-threshold-max', 'dc-high-bypass']) {
       const r = at(cond);
-      let i = 5e-3;
-      for (let k = 0; k < 30; k++) i = (r.TP1 - r.TP18 - diodeVolts('GRN3MM', i)) / R('R25');
-      // ≈ (11.3 − 0.15 − 2.0)/2.2k ≈ 4.1 mA: a visible, safe indicator current (common practice 2–15 mA).
+      // LED current from the drop across R25: ≈ (11.30 − 2.22)/2.2k ≈ 4.1 mA, a visible, safe
+      // indicator current (common practice 2–15 mA).
+      const i = (r.TP1 - r.TP18) / R('R25');
       expect(i, cond).toBeGreaterThan(2e-3);
       expect(i, cond).toBeLessThan(15e-3);
-      // Q3 saturated: its collector well below the LED's off level.
-      expect(r.TP18, cond).toBeLessThan(0.3);
+      // Anode = LED drop at that current (board's GRN3MM model) + Q3's saturation voltage, under 0.3 V
+      // for a 2N3904 driven this hard (MCC datasheet: VCE(sat) ≤ 0.2 V at 10 mA, IB = 1 mA).
+      const vce = r.TP18 - diodeVolts('GRN3MM', i);
+      expect(vce, cond).toBeGreaterThan(0);
+      expect(vce, cond).toBeLessThan(0.3);
     }
+    // Dark: no current through R25, its LED end sits at the rail. At 1.71 V out (dc-high) Q3's base is at
+    // 0.534 V and it leaks a few µA (Is·e^(Vbe/Vt) ≈ 6.7 fA × e^20.6 ≈ 6 µA): still dark to the eye.
+    for (const cond of ['quiescent', 'dc-low']) expect(Math.abs(at(cond).TP1 - at(cond).TP18), cond).toBeLessThan(1e-3);
+    expect((at('dc-high').TP1 - at('dc-high').TP18) / R('R25')).toBeLessThan(20e-6);
   });
 
   it('unpowered: +12 V reads below R15 + RV2; −12 V reaches only capacitors and a reversed D2', () => {
