@@ -6,6 +6,8 @@ import { FIXED_PINS, acceptedPinsText, requiredPins } from './pins.js';
 import { BUILTIN_MODELS, BUILTIN_OPAMP_MODELS, MODEL_TYPE, VALUE_RANGE } from './defaults.js';
 import { modelNameFor, parsePartValue } from './values.js';
 import { didYouMean } from './shape-problems.js';
+import { DIODE_PARAMS } from '../circuit/devices/diode.js';
+import { BJT_PARAMS } from '../circuit/devices/bjt.js';
 
 /**
  * Meaning checks on a board that already has the right shape. Every problem is collected, none stops
@@ -143,6 +145,29 @@ export function meaningProblems(board: Board, file: string): Problem[] {
     if (c.signal) {
       if (c.signal.net === board.ground) add('signal-on-ground', `conditions[${i}].signal.net`, `the signal of ${c.id} is applied to ground`, 'the net the DC level goes to');
       if (!c.powered) add('signal-unpowered', `conditions[${i}].signal`, `${c.id} is unpowered but applies a signal (it would feed the board through its inputs)`, 'a signal only in a powered condition');
+    }
+  });
+
+  // Model cards: parameter names the solver knows (a misspelt one would otherwise be ignored).
+  for (const [name, model] of Object.entries(board.models)) {
+    const spec = model.type === 'D' ? DIODE_PARAMS : BJT_PARAMS;
+    const known = [...Object.keys(spec.defaults), ...Object.keys(spec.aliases ?? {}), ...spec.ignoredAtDc];
+    for (const param of Object.keys(model.params)) {
+      if (!known.includes(param.toUpperCase())) {
+        add('unknown-model-param', `models.${name}.params.${param}`, `${model.type} model ${name} has no parameter "${param}"${didYouMean(param.toUpperCase(), known)}`, `SPICE ${model.type} parameters: ${Object.keys(spec.defaults).join(', ')}`);
+      }
+    }
+    for (const [param, range] of Object.entries(model.spread ?? {})) {
+      if (!(param in model.params)) add('unknown-model-param', `models.${name}.spread.${param}`, `spread given for "${param}", which model ${name} does not set`, `one of the model's params: ${Object.keys(model.params).join(', ')}`);
+      if (range[0] > range[1]) add('bad-spread', `models.${name}.spread.${param}`, `spread [${range.join(', ')}] runs backwards`, '[low multiplier, high multiplier] with low ≤ high');
+    }
+  }
+  board.parts.forEach((part, i) => {
+    if (part.kind !== 'zener') return;
+    const name = modelNameFor(part);
+    const model = name === undefined ? undefined : (board.models[name] ?? BUILTIN_MODELS[name]);
+    if (model && model.type === 'D' && !Object.keys(model.params).some((k) => k.toUpperCase() === 'BV')) {
+      add('zener-without-bv', `parts[${i}].model`, `${part.ref} is a zener but model "${name}" sets no BV (breakdown voltage)`, 'a D model with BV, e.g. {"BV": 5.1, "IBV": 0.001}');
     }
   });
 

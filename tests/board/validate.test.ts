@@ -232,6 +232,20 @@ describe('meaning checks on edited copies of the fixture', () => {
     });
     expect(r2.problems.map((p) => p.code)).toContain('board.net-case');
   });
+  it('model cards: an unknown SPICE parameter, a backwards spread, a zener without BV', () => {
+    const r = check((b) => {
+      b.models = { SIG: { type: 'D', params: { IS: 1e-14, NN: 1.8 }, spread: { IS: [2, 0.5] } }, Z5: { type: 'D', params: { IS: 1e-14 } } };
+      part(b, 'D3').model = 'SIG';
+      part(b, 'D1').kind = 'zener';
+      part(b, 'D1').model = 'Z5';
+    });
+    expect(r.problems.map((p) => `${p.code} ${p.path}`)).toEqual([
+      'board.unknown-model-param models.SIG.params.NN',
+      'board.bad-spread models.SIG.spread.IS',
+      'board.zener-without-bv parts[1].model',
+    ]);
+    expect(r.problems[0].message).toBe('D model SIG has no parameter "NN" — did you mean "N"?');
+  });
   it('a two-pin part with both pins on one net', () => {
     const p = only(check((b) => {
       part(b, 'C3').pins['2'] = '+12v';
