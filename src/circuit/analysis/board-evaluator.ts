@@ -48,7 +48,7 @@ export interface ConditionEvaluator {
 export interface BoardEvaluator {
   deviations: PartDeviation[];
   outputs: BoardOutput[];
-  /** Readings of every output for one deviation vector (every condition solved). */
+  /** Readings of every output for one deviation vector (every condition solved; NaN where a circuit was not). */
   evaluate: Evaluate;
   /** The same, one condition at a time (the worst-case search runs per condition). */
   perCondition: ConditionEvaluator[];
@@ -98,9 +98,18 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
     const s = solveAlongPath(setup, deviations, u, () => solves++);
     for (const r of setup.readers) into[at(r.output)] = r.read(s);
   };
+  // One board across all conditions: a circuit that cannot be solved leaves its readings NaN
+  // rather than losing the whole sample (Monte Carlo skips NaN per reading).
   const evaluate: Evaluate = (u) => {
     const y = new Float64Array(outputs.length);
-    for (const setup of setups) solveSetup(setup, u, y, (o) => o);
+    for (const setup of setups) {
+      try {
+        solveSetup(setup, u, y, (o) => o);
+      } catch (error) {
+        if (!(error instanceof ConvergenceError)) throw error;
+        for (const r of setup.readers) y[r.output] = NaN;
+      }
+    }
     return y;
   };
   const perCondition = conditions.map((condition) => {

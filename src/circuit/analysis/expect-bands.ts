@@ -57,7 +57,7 @@ export interface ExpectReport {
   solves: number;
   /** Deviation variables (parts and model parameters) taken into account. */
   variables: number;
-  /** Points or samples that did not converge and were left out. */
+  /** Worst-case points that could not be solved, plus Monte Carlo samples lost (for the reading that lost most). */
   failures: number;
   /** Test points with no band because the healthy board itself could not be solved there. */
   unsolved: Array<{ condition: string; testPoints: string[]; reason: string }>;
@@ -102,10 +102,10 @@ export function expectReport(board: Board, options: ExpectOptions = {}): ExpectR
           { samples, seed, onProgress: (d, t) => options.onProgress?.(d, t, 'monte-carlo') },
         )
       : undefined;
-  if (mc) failures += mc.failures;
+  if (mc) failures += mc.failures + mc.missing.reduce((a, b) => Math.max(a, b), 0);
   const bands = ev.outputs.map((o, j): Band => {
     const band: Band = { id: o.testPoint, node: o.node, condition: o.condition, nominal: nominal[j], min: min[j], max: max[j], unit: o.unit };
-    if (mc) {
+    if (mc && !Number.isNaN(mc.low[j])) {
       band.min = Math.min(band.min, mc.min[j]);
       band.max = Math.max(band.max, mc.max[j]);
       band.mcLow = mc.low[j];

@@ -6,7 +6,9 @@ import type { Evaluate } from './worst-case.js';
  * Monte Carlo over normalised part deviations: N boards drawn at random (each variable from its own
  * distribution, see deviation.ts), every output read from each, and the spread summarised by
  * percentiles. Seeded: the same seed and the same variables give the same draws, sample by sample,
- * on any machine. A sample that cannot be solved is counted and left out.
+ * on any machine. A sample that cannot be solved at all is counted and left out; a reading the
+ * evaluator returns as NaN (one circuit of the sample not solved) is left out of that reading's
+ * statistics only, and counted in `missing`.
  */
 
 export interface MonteCarloOptions {
@@ -24,6 +26,8 @@ export interface MonteCarloOptions {
 export interface MonteCarloResult {
   samples: number;
   failures: number;
+  /** Per output: samples whose reading was NaN (not solved) and left out. */
+  missing: Uint32Array;
   seed: number;
   interval: [number, number];
   /** Per output: the interval's ends, the median, and the extremes seen. */
@@ -72,10 +76,21 @@ export function monteCarlo(
     mean: new Float64Array(m),
     std: new Float64Array(m),
   };
-  const column = new Float64Array(rows.length);
+  const missing = new Uint32Array(m);
+  const buffer = new Float64Array(rows.length);
   for (let j = 0; j < m; j++) {
-    for (let k = 0; k < rows.length; k++) column[k] = rows[k][j];
+    let count = 0;
+    for (let k = 0; k < rows.length; k++) {
+      const v = rows[k][j];
+      if (Number.isNaN(v)) missing[j]++;
+      else buffer[count++] = v;
+    }
+    const column = buffer.subarray(0, count);
     column.sort();
+    if (count === 0) {
+      for (const key of Object.keys(out) as Array<keyof typeof out>) out[key][j] = NaN;
+      continue;
+    }
     out.low[j] = percentile(column, interval[0]);
     out.high[j] = percentile(column, interval[1]);
     out.median[j] = percentile(column, 50);
@@ -89,7 +104,7 @@ export function monteCarlo(
     out.mean[j] = mean;
     out.std[j] = column.length > 1 ? Math.sqrt(sq / (column.length - 1)) : 0;
   }
-  return { samples: rows.length, failures, seed, interval, ...out };
+  return { samples: rows.length, failures, missing, seed, interval, ...out };
 }
 
 /** Percentile p (0..100) of sorted data, linear between order statistics (the common "type 7" rule). */

@@ -34,7 +34,7 @@ describe('detector time constants from roles', () => {
 });
 
 describe('10–90 % time against ngspice', () => {
-  beforeAll(startNgspice, 20_000);
+  beforeAll(startNgspice, 120_000);
 
   it('matches the transient step response of the same RC within 1 %', async () => {
     const t = detectorTimes(smallBoard(), 'quiescent').attack;
@@ -57,5 +57,5 @@ describe('10–90 % time against ngspice', () => {
     const rise = crossing(0.9) - crossing(0.1);
     expect(Math.abs(rise / t.riseTime - 1)).toBeLessThan(0.01);
     expect(t.riseTime / t.tau).toBeCloseTo(LN9, 12);
-  }, 30_000);
+  }, 120_000);
 });

@@ -169,6 +169,15 @@ describe('Monte Carlo over an abstract evaluator', () => {
     expect(mc.max[0]).toBeLessThanOrEqual(0.9);
   });
 
+  it('leaves a NaN reading out of that reading only', () => {
+    const mc = monteCarlo(['uniform'], (u) => Float64Array.of(u[0], u[0] > 0.5 ? NaN : u[0]), { samples: 400, seed: 8 });
+    expect(mc.failures).toBe(0);
+    expect(mc.missing[0]).toBe(0);
+    expect(mc.missing[1]).toBeGreaterThan(50);
+    expect(mc.max[0]).toBeGreaterThan(0.9);
+    expect(mc.max[1]).toBeLessThanOrEqual(0.5);
+  });
+
   it('percentile interpolates between order statistics', () => {
     expect(percentile([1, 2, 3, 4, 5], 50)).toBe(3);
     expect(percentile([1, 2, 3, 4, 5], 25)).toBe(2);
