@@ -57,7 +57,7 @@ export function createAcSolver(circuit: Circuit, options: AcOptions = {}, dc: Dc
   const x = dc.x.slice();
   dc.engine.stampAt(x, opts, 0, 1, false);
   const jacobian = dc.engine.stamper.a.slice();
-  const lu = new ComplexSparseLu(n, cc.pattern);
+  const lu = new ComplexSparseLu(n, cc.pattern, cc.positions);
   const cs = new ComplexStamper(n);
 
   return {

@@ -35,6 +35,8 @@ export interface CompiledCircuit {
   vt: number;
   /** 1 at every matrix position any device can write. */
   pattern: Uint8Array;
+  /** The same positions as a list of row·size + column. */
+  positions: Int32Array;
   /**
    * Unknowns of circuit nodes (not device-internal ones): where gshunt and gmin stepping put their
    * conductance to ground. Internal nodes always hang off a series resistance, and a shunt there
@@ -123,5 +125,8 @@ export function compileCircuit(circuit: Circuit): CompiledCircuit {
   for (let i = 0; i < size; i++) if (!isCurrent[i]) pattern[i * size + i] = 1;
 
   const shuntRows = Int32Array.from(nodeIndex.values());
-  return { circuit, size, unknownNames: names, isCurrent: Uint8Array.from(isCurrent), nodeIndex, devices, warnings, vt, pattern, shuntRows };
+  const list: number[] = [];
+  for (let k = 0; k < pattern.length; k++) if (pattern[k]) list.push(k);
+  const positions = Int32Array.from(list);
+  return { circuit, size, unknownNames: names, isCurrent: Uint8Array.from(isCurrent), nodeIndex, devices, warnings, vt, pattern, positions, shuntRows };
 }

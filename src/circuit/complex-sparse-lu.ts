@@ -28,12 +28,10 @@ export class ComplexSparseLu {
   /** Plans made so far (for benchmarks). */
   plansMade = 0;
 
-  constructor(n: number, pattern: Uint8Array) {
+  constructor(n: number, pattern: Uint8Array, positions: Int32Array) {
     this.n = n;
     this.pattern = pattern;
-    const pos: number[] = [];
-    for (let k = 0; k < pattern.length; k++) if (pattern[k]) pos.push(k);
-    this.positions = Int32Array.from(pos);
+    this.positions = positions;
     this.wr = new Float64Array(n * n);
     this.wi = new Float64Array(n * n);
   }

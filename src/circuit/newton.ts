@@ -41,8 +41,8 @@ export class NewtonEngine {
   constructor(cc: CompiledCircuit) {
     this.cc = cc;
     this.stamper = new Stamper(cc.size);
-    this.stamper.restrictTo(cc.pattern);
-    this.lu = new SparseLu(cc.size, cc.pattern);
+    this.stamper.restrictTo(cc.positions);
+    this.lu = new SparseLu(cc.size, cc.pattern, cc.positions);
     this.ctx = { x: new Float64Array(cc.size), vt: cc.vt, gmin: 1e-12, sourceScale: 1, limit: true, limited: 0 };
     this.xNew = new Float64Array(cc.size);
     this.history = Array.from({ length: CYCLE_DEPTH }, () => new Float64Array(cc.size));

@@ -30,25 +30,23 @@ interface LuPlan {
 }
 
 interface PatternEntry {
-  pattern: Uint8Array;
+  positions: Int32Array;
   plans: LuPlan[];
 }
 
 const cache = new Map<string, PatternEntry[]>();
 
-function patternKey(n: number, pattern: Uint8Array): string {
+function patternKey(n: number, positions: Int32Array): string {
   let h = 0x811c9dc5;
-  for (let k = 0; k < pattern.length; k++) {
-    if (pattern[k]) {
-      h ^= k;
-      h = Math.imul(h, 0x01000193) >>> 0;
-    }
+  for (let t = 0; t < positions.length; t++) {
+    h ^= positions[t];
+    h = Math.imul(h, 0x01000193) >>> 0;
   }
-  return `${n}:${h}`;
+  return `${n}:${positions.length}:${h}`;
 }
 
-function sharedPlans(n: number, pattern: Uint8Array): LuPlan[] {
-  const key = patternKey(n, pattern);
+function sharedPlans(n: number, positions: Int32Array): LuPlan[] {
+  const key = patternKey(n, positions);
   let bucket = cache.get(key);
   if (!bucket) {
     if (cache.size >= CACHED_PATTERNS) cache.delete(cache.keys().next().value as string);
@@ -56,10 +54,11 @@ function sharedPlans(n: number, pattern: Uint8Array): LuPlan[] {
     cache.set(key, bucket);
   }
   outer: for (const entry of bucket) {
-    for (let k = 0; k < pattern.length; k++) if (entry.pattern[k] !== pattern[k]) continue outer;
+    if (entry.positions.length !== positions.length) continue;
+    for (let t = 0; t < positions.length; t++) if (entry.positions[t] !== positions[t]) continue outer;
     return entry.plans;
   }
-  const entry = { pattern: pattern.slice(), plans: [] as LuPlan[] };
+  const entry = { positions: positions.slice(), plans: [] as LuPlan[] };
   bucket.push(entry);
   return entry.plans;
 }
@@ -75,15 +74,19 @@ export class SparseLu {
   /** How many plans this instance made (for tests and benchmarks). */
   plansMade = 0;
 
-  constructor(n: number, pattern: Uint8Array) {
+  constructor(n: number, pattern: Uint8Array, positions?: Int32Array) {
     this.n = n;
     this.pattern = pattern;
-    const pos: number[] = [];
-    for (let k = 0; k < pattern.length; k++) if (pattern[k]) pos.push(k);
-    this.positions = Int32Array.from(pos);
+    if (positions) {
+      this.positions = positions;
+    } else {
+      const pos: number[] = [];
+      for (let k = 0; k < pattern.length; k++) if (pattern[k]) pos.push(k);
+      this.positions = Int32Array.from(pos);
+    }
     this.w = new Float64Array(n * n);
     this.z = new Float64Array(n);
-    this.plans = sharedPlans(n, pattern);
+    this.plans = sharedPlans(n, this.positions);
   }
 
   /** Factors `a`, which must be zero outside the pattern. */

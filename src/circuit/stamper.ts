@@ -38,12 +38,12 @@ export class Stamper {
     this.b.fill(0);
   }
 
-  /** Clear only these positions from now on: every stamp must stay inside the recorded pattern. */
-  restrictTo(pattern: Uint8Array): void {
-    const list: number[] = [];
-    for (let k = 0; k < pattern.length; k++) if (pattern[k]) list.push(k);
-    this.positions = Int32Array.from(list);
-    this.a.fill(0);
+  /**
+   * Clear only these positions (row·size + column) from now on: every stamp must stay inside the
+   * recorded pattern. The matrix must still be all zero when this is called.
+   */
+  restrictTo(positions: Int32Array): void {
+    this.positions = positions;
   }
 
   /** Adds `value` at A[row][col]. */
