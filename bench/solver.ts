@@ -1,10 +1,11 @@
 /**
  * Solver speed on a board-sized circuit (~80 nodes: op-amp stages, a differential pair per
  * stage, rectifier diodes, LEDs, pots), the size the fault dictionary solves over and over.
- * Reports medians of: compile + cold solve, warm solve on a kept solver, and warm solveDC that
- * recompiles each time (what a caller pays when every fault builds a fresh Circuit).
+ * Reports medians of: compile + cold solve, warm solve on a kept solver, warm solveDC that
+ * recompiles each time (what a caller pays when every fault builds a fresh Circuit), and one AC
+ * frequency point on a kept linearisation.
  */
-import { createDcSolver, solveDC, ledModel, type Circuit, type Element } from '../src/circuit/index.js';
+import { createAcSolver, createDcSolver, solveDC, ledModel, type Circuit, type Element } from '../src/circuit/index.js';
 import { fmt, median, timeRuns } from './timing.js';
 
 export function boardSizedCircuit(stages = 6): Circuit {
@@ -78,5 +79,13 @@ export async function run(): Promise<void> {
     console.log(`  cold solve, compiled solver     ${fmt(reuseCold)}`);
     console.log(`  warm solve, compiled solver     ${fmt(warm)}  (${iters} iterations)`);
     console.log(`  warm solveDC (compiles again)   ${fmt(warmFresh)}`);
+    const withAc = structuredClone(c);
+    const vin = withAc.elements.find((e) => e.name === 'vin');
+    if (vin && vin.kind === 'vsource') vin.ac = { mag: 1, phaseDeg: 0 };
+    const ac = createAcSolver(withAc, { op });
+    let f = 10;
+    const acPoint = median(timeRuns(() => void ac.solve((f = f * 1.01)), 100));
+    console.log(`  AC, one frequency               ${fmt(acPoint)}`);
+    console.log(`  ratio warm/cold (kept solver)   ${(warm / reuseCold).toFixed(2)}`);
   }
 }

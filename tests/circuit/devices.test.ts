@@ -22,6 +22,19 @@ describe('thermal voltage', () => {
   });
 });
 
+describe('analysis temperature', () => {
+  it('kT/q follows the circuit temperature; IS scaling is not modelled and says so', () => {
+    // Shockley: V = N·Vt·ln(I/IS + 1) with Vt = kT/q; with IS held fixed, V scales with T.
+    const model = { name: 'd', type: 'D' as const, params: { IS: 1e-14, N: 1, EG: 1.11, XTI: 3 } };
+    const at = (t: number) => solveDC(circuit([I('i1', '0', 'a', 1e-3), D('d1', 'a', '0', 'd')], [model], t), EXACT);
+    const cold = at(27);
+    const hot = at(77);
+    expect(hot.nodes.a / cold.nodes.a).toBeCloseTo((77 + 273.15) / (27 + 273.15), 6);
+    expect(cold.warnings.join(' ')).not.toMatch(/temperature/);
+    expect(hot.warnings.join(' ')).toMatch(/EG, XTI/);
+  });
+});
+
 describe('Gummel–Poon against its closed forms', () => {
   // Terminal voltages forced by sources, so the transistor's own equations can be checked directly.
   // SPICE Gummel–Poon (ngspice manual, BJT model): with ISE = ISC = 0 and no high injection,
