@@ -17,6 +17,8 @@ import type { Tree } from '../../src/schemas/tree.js';
 interface Scenario {
   role: PartRole;
   mode: FaultModeId;
+  /** For a dual or quad op-amp: which amplifier (the first listed otherwise). */
+  amplifier?: string;
   /** Observations for this fault, by step id, when no reading decides them. */
   observe?: Record<string, string>;
   /** Boards this scenario applies to (all when absent): a board built differently may hide the fault from this tree. */
@@ -36,7 +38,9 @@ const SCENARIOS: Record<string, Scenario[]> = {
   'distortion-high-ratio': [
     { role: 'pos-rail-protection', mode: 'reversed' },
     // the Nib has no maximum-ratio condition, so this tree's control-chain steps are skipped there
-    { role: 'control-opamp', mode: 'output-stuck-high', boards: ['wenlow-tamp'] },
+    // the amplifier that drives the control line; the Tamp's worst-case band there is wide enough
+    // (from no gain reduction to full) that its other amplifier stuck high still reads in band
+    { role: 'control-opamp', mode: 'output-stuck-high', amplifier: 'b', boards: ['wenlow-tamp'] },
   ],
   'dead-meter': [
     { role: 'neg-rail-protection', mode: 'reversed' },
@@ -128,7 +132,7 @@ function answersFor(tree: Tree, healthy: Board, faulty: Board, observe: Record<s
 
 function faultFor(board: Board, s: Scenario): Fault | undefined {
   const part = roleParts(board, s.role)[0];
-  return part && faultsFor(board).find((f) => f.part === part.ref && f.mode === s.mode);
+  return part && faultsFor(board).find((f) => f.part === part.ref && f.mode === s.mode && (s.amplifier === undefined || f.amplifier === s.amplifier));
 }
 
 describe.each(boards.map((b) => [b.id, b] as const))('faults injected into %s', (_id, board) => {
