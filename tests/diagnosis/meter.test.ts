@@ -24,3 +24,12 @@ describe('meter accuracy window', () => {
     expect(clampOhms(Infinity)).toBe(20e6);
   });
 });
+
+describe('readings as the display shows them', () => {
+  it('a few picovolts of simulation residue is 0 V, below a 2000-count meter\'s 0.1 mV digit', async () => {
+    const { showReading } = await import('../../src/diagnosis/why.js');
+    expect(showReading(-2.55e-12, 'V')).toBe('0 V');
+    expect(showReading(0.0102, 'V')).toBe('10.2 mV');
+    expect(showReading(Infinity, 'Ω')).toBe('OL (open)');
+  });
+});
