@@ -5,7 +5,7 @@ import { parseOptions } from '../args.js';
 import { UsageError } from '../../errors.js';
 import { DEMO_BOARD_FILE, loadBoard } from '../../board/index.js';
 import { expectReport, type Band } from '../../circuit/analysis/index.js';
-import { formatValue } from '../../units/index.js';
+import { showReading } from '../../diagnosis/index.js';
 import type { Board } from '../../schemas/board.js';
 
 const HELP = `Usage: voltwalk expect [--board FILE] [--condition NAME] [--set REF=VALUE]... [--samples N] [--seed N] [--json]
@@ -111,13 +111,8 @@ function jsonBand(b: Band) {
   };
 }
 
-/**
- * Below a microvolt no bench meter shows anything but zero (a handheld's finest DC range resolves
- * 0.1 mV, common practice); printing "−2.55 pV" would only suggest a precision that is not there.
- */
-const METER_FLOOR_VOLTS = 1e-6;
-const show = (v: number, unit: string) =>
-  !Number.isFinite(v) ? 'open (OL)' : unit === 'V' && Math.abs(v) < METER_FLOOR_VOLTS ? '0 V' : formatValue(v, unit);
+/** Values as the meter would show them (the same rule as the walk's screens). */
+const show = (v: number, unit: 'V' | 'Ω') => showReading(v, unit);
 
 function table(board: Board, bands: Band[], samples: number, seed: number, subs: Record<string, string>): string {
   const lines: string[] = [`${board.name}: expected readings`];
