@@ -31,7 +31,8 @@ export function formatCaseSummary(c: CaseSummary, style: SummaryStyle = 'md'): s
     }
     if (c.readings.length > MAX_READINGS) lines.push(`- … and ${c.readings.length - MAX_READINGS} more`);
   } else lines.push('Readings: none yet');
-  for (const a of c.answers.slice(0, MAX_ANSWERS)) lines.push(`- ${a.question} -> ${a.answer}`);
+  if (c.answers.length > 0) lines.push(`Checks answered: ${c.answers.length}`);
+  for (const a of c.answers.slice(-MAX_ANSWERS)) lines.push(`- ${a.question} -> ${a.answer}`);
   if (c.skipped.length > 0) lines.push(`Skipped: ${c.skipped.length} step(s) (${c.skipped[0].reason}${c.skipped.length > 1 ? ', …' : ''})`);
   if (c.conclusion) lines.push(`${b('Found')}: ${c.conclusion.title}`);
   if (c.suspects.length > 0) {
