@@ -16,6 +16,8 @@
  *   npm run accuracy -- --seed 7        another draw of tolerances and meter errors
  *   npm run accuracy -- --conditions unpowered,quiescent,dc-injection-below-threshold
  *                                       only these conditions (ids or condition roles) are in play
+ *   npm run accuracy -- --isolate 0.99  stop when the leading group holds 99 % (default 95 %)
+ *   npm run accuracy -- --show-misses   list the faults not in the top 3, with what was ranked instead
  */
 import { parseArgs } from 'node:util';
 import { bundledBoardFiles, loadBoard } from '../src/board/index.js';
@@ -36,11 +38,19 @@ import {
 import type { Board } from '../src/schemas/board.js';
 
 const { values } = parseArgs({
-  options: { board: { type: 'string', multiple: true }, seed: { type: 'string' }, budget: { type: 'string' }, conditions: { type: 'string' } },
+  options: {
+    board: { type: 'string', multiple: true },
+    seed: { type: 'string' },
+    budget: { type: 'string' },
+    conditions: { type: 'string' },
+    isolate: { type: 'string' },
+    'show-misses': { type: 'boolean' },
+  },
 });
 const seed = Number(values.seed ?? 1);
 const files = values.board ?? bundledBoardFiles();
-const ISOLATED = 0.9;
+/** The walk stops once the leading ambiguity group holds this much of the probability. */
+const ISOLATED = Number(values.isolate ?? 0.95);
 
 interface Trial {
   board: string;
@@ -49,6 +59,7 @@ interface Trial {
   top1: boolean;
   top3: boolean;
   probes: number;
+  ranked: string;
   isolated: boolean;
   candidates: number;
 }
@@ -126,6 +137,7 @@ function walk(board: Board, dict: BuiltDictionary, truth: Map<string, number>, f
   }
   const ids = result.suspects.map((s) => s.id);
   return {
+    ranked: result.suspects.slice(0, 3).map((s) => `${s.id} ${(s.probability * 100).toFixed(0)} %`).join(', '),
     top1: ids[0] === faultId,
     top3: ids.slice(0, 3).includes(faultId),
     probes: readings.length,
@@ -143,7 +155,7 @@ const row = (name: string, ts: Trial[]) =>
 const lines: string[] = [];
 lines.push(`Fault-finding accuracy (seed ${seed}; ${files.length} board${files.length === 1 ? '' : 's'}; conditions: ${values.conditions ?? 'all'}; ${((performance.now() - started) / 1000).toFixed(1)} s)`);
 lines.push('');
-lines.push('| Fault mode | Faults | Top-1 | Top-3 | Mean probes | Isolated (≥ 90 %) |');
+lines.push(`| Fault mode | Faults | Top-1 | Top-3 | Mean probes | Isolated (≥ ${Math.round(ISOLATED * 100)} %) |`);
 lines.push('|---|---:|---:|---:|---:|---:|');
 lines.push(row('**all distinguishable**', trials));
 const modes = [...new Set(trials.map((t) => t.mode))].sort();
@@ -161,4 +173,8 @@ const twins = skipped.filter((s) => s.why === 'twin');
 if (twins.length) lines.push(`  Of the ${twins.length} with a mimic, ${pct(twins.filter((s) => s.inLeadingGroup).length, twins.length)} end with their group ranked first.`);
 const healthyModes = [...new Set(skipped.filter((s) => s.why === 'looks healthy').map((s) => s.mode))];
 if (healthyModes.length) lines.push(`  Modes among the look-healthy ones: ${healthyModes.join(', ')}.`);
+if (values['show-misses']) {
+  lines.push('', 'Not in the top 3:');
+  for (const t of trials.filter((x) => !x.top3)) lines.push(`- ${t.board} ${t.fault} after ${t.probes} probes: ${t.ranked}`);
+}
 console.log(lines.join('\n'));
