@@ -11,6 +11,8 @@
  *   stale answer. So every run gets a unique title, and the result's title and plot name are
  *   checked. If no run has succeeded yet there is no raw file and `runSim()` never settles, so
  *   starting includes one known-good run, and every run has a time limit.
+ * - A netlist with any non-ASCII character (an em dash in a title, a µ) makes the run never
+ *   return, so such text is refused up front. Our writer only writes ASCII.
  * - `getError()` also carries harmless notes (gmin stepping, unknown model parameters); only lines
  *   starting "Error" or saying the run was interrupted count as failure.
  * - Results name vectors `v(node)` and `i(source)`, lower case; nodes inside subcircuits appear as
@@ -81,6 +83,8 @@ export async function runNgspice(netlist: string, card: string, plotName: string
   const sim = await startNgspice();
   const title = `reference run ${++runs}`;
   const text = withAnalysis(netlist, title, card);
+  const foreign = /[^\x00-\x7f]/.exec(text);
+  if (foreign) throw new NgspiceError(`netlist has a non-ASCII character "${foreign[0]}"; the in-process ngspice never returns from such text`, []);
   const job = queue.then(async () => {
     sim.setNetList(text);
     const result = await withTimeout(sim.runSim(), `"${netlist.split('\n')[0]}"`);

@@ -6,7 +6,9 @@ import type { Element } from '../netlist.js';
  * cannot say (a pot's position and taper, a switch's positions, an op-amp's parameters, a name
  * SPICE would not accept). ngspice reads them as comments, so the netlist still runs unmodified.
  *
+ *   *@title <JSON string>                    the title, when the first line had to be made ASCII
  *   *@node <spice node> <circuit node>      a node renamed for SPICE
+ *   *@model <spice name> <circuit name>     a model renamed for SPICE
  *   *@element <element as JSON>              the element the following SPICE lines stand for…
  *   …SPICE lines…
  *   *@end                                    …up to here; our reader skips them
@@ -79,7 +81,7 @@ const ElementSchema = z.discriminatedUnion('kind', [
 const checkShape = (e: z.infer<typeof ElementSchema>): Element => e;
 void checkShape;
 
-export const ANNOTATION_FORMS = '*@node <spice node> <circuit node>, *@element <JSON element>, *@end';
+
 
 /** Parses an `*@element` JSON payload; returns the element or a one-line reason. */
 export function readElementAnnotation(json: string): { element: Element } | { problem: string } {
@@ -111,6 +113,24 @@ export function readElementAnnotation(json: string): { element: Element } | { pr
   return { element };
 }
 
+/** JSON with every non-ASCII character escaped: the in-process ngspice hangs on non-ASCII text. */
+export function asciiJson(value: unknown): string {
+  return JSON.stringify(value).replace(/[\u0080-\uffff]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+}
+
 export function writeElementAnnotation(element: Element): string {
-  return `*@element ${JSON.stringify(element)}`;
+  return `*@element ${asciiJson(element)}`;
+}
+
+/** The title line in ASCII, and an annotation restoring the original when it had to change. */
+export function writeTitle(title: string): { line: string; annotation?: string } {
+  const flat = title.replace(/[\r\n]+/g, ' ').trim() || 'voltwalk circuit';
+  const line = flat
+    .replace(/[\u2012-\u2015\u2212]/g, '-')
+    .replace(/±/g, '+/-')
+    .replace(/Ω/g, 'ohm')
+    .replace(/[µμ]/g, 'u')
+    .replace(/°/g, ' deg')
+    .replace(/[^\x20-\x7e]/g, '?');
+  return line === title ? { line } : { line, annotation: `*@title ${asciiJson(title)}` };
 }

@@ -367,17 +367,40 @@ export function parseNetlist(text: string, file?: string): ParsedNetlist {
   // Node renames and models first: elements may use models defined further down, as in SPICE.
   for (const line of split.lines) {
     if (line.annotation) {
-      const m = /^(node|model)\s+(\S+)\s+(\S+)$/.exec(line.text);
-      if (m) (m[1] === 'node' ? r.nodeNames : r.modelNames).set(m[2].toLowerCase(), m[3]);
+      const m = /^(node|model)\s+(\S+)\s+(.+)$/.exec(line.text);
+      if (m) {
+        let name = m[3];
+        if (name.startsWith('"')) {
+          try {
+            name = String(JSON.parse(name));
+          } catch {
+            r.problem(line.line, `the *@${m[1]} annotation's name is not a valid JSON string`, `*@${m[1]} <spice name> <name or JSON string>`);
+            continue;
+          }
+        }
+        (m[1] === 'node' ? r.nodeNames : r.modelNames).set(m[2].toLowerCase(), name);
+      }
     } else if (/^\.model\b/i.test(line.text)) {
       readModel(r, line);
     }
   }
 
+  let title = split.title;
   let block: { element: Element; line: number } | undefined;
   for (const line of split.lines) {
     if (line.annotation) {
       if (/^(node|model)\s/.test(line.text)) continue;
+      const t = /^title\s+(.*)$/.exec(line.text);
+      if (t) {
+        try {
+          const value = JSON.parse(t[1]) as unknown;
+          if (typeof value === 'string') title = value;
+          else r.problem(line.line, 'the *@title annotation is not a JSON string', '*@title "the title"');
+        } catch {
+          r.problem(line.line, 'the *@title annotation is not valid JSON', '*@title "the title"');
+        }
+        continue;
+      }
       if (line.text === 'end') {
         if (!block) r.problem(line.line, '*@end without an *@element before it', '*@element {...} … *@end');
         else if ((block.element.kind === 'diode' || block.element.kind === 'bjt') && !r.models[block.element.model]) {
@@ -415,7 +438,7 @@ export function parseNetlist(text: string, file?: string): ParsedNetlist {
   if (r.problems.length > 0) throw new UserInputError(r.problems);
 
   const circuit: Circuit = {
-    title: split.title,
+    title,
     elements: r.elements,
     models: r.models,
     ...(r.temperatureC !== undefined ? { temperatureC: r.temperatureC } : {}),

@@ -2,7 +2,7 @@ import { DEFAULT_DC_OPTIONS } from '../options.js';
 import { opampSpiceLines } from '../devices/opamp.js';
 import { potResistances } from '../devices/potentiometer.js';
 import { GROUND, circuitNodes, type Circuit, type Element, type Model } from '../netlist.js';
-import { writeElementAnnotation } from './annotation.js';
+import { asciiJson, writeElementAnnotation, writeTitle } from './annotation.js';
 import { formatSpiceNumber as num } from './spice-number.js';
 
 /**
@@ -18,6 +18,9 @@ import { formatSpiceNumber as num } from './spice-number.js';
  *   Debian's ngspice honours. (The WebAssembly build the tests use ignores rshunt — found by
  *   trying it — and reaches floating nodes by its own fallbacks; 1e-12 S is below what the
  *   cross-checks can see.)
+ * - The text is ASCII only: the in-process ngspice the tests use never returns from a netlist
+ *   with other characters in it (found by trying; Debian's ngspice reads them). A title that had
+ *   to change is kept exactly in a `*@title` annotation, JSON annotations escape the rest.
  * - Names SPICE would misread (a node "+12v" is fine in ngspice, but "a b" or "x=1" is not; an
  *   element whose name does not start with its kind's letter) are renamed, and `*@` comments
  *   record the original so our reader restores it (see annotation.ts).
@@ -120,10 +123,14 @@ export function writeNetlist(circuit: Circuit, options: WriteNetlistOptions = {}
   for (const key of Object.keys(circuit.models)) modelMap.set(key, isSafe(key) ? key : modelNames.take(`m_${key}`));
 
   const elementNames = new Names(circuit.elements.filter(plainlyWritten).map((e) => e.name));
-  const out: string[] = [circuit.title.replace(/[\r\n]+/g, ' ').trim() || 'voltwalk circuit'];
+  const title = writeTitle(circuit.title);
+  const out: string[] = [title.line];
   out.push('* written by voltwalk; node 0 is ground; *@ lines let voltwalk read this file back');
-  for (const [original, safe] of nodeMap) if (original !== safe) out.push(`*@node ${safe} ${original}`);
-  for (const [original, safe] of modelMap) if (original !== safe) out.push(`*@model ${safe} ${original}`);
+  if (title.annotation) out.push(title.annotation);
+  // A name with spaces or non-ASCII characters is written as a JSON string.
+  const literal = (name: string) => (/^[\x21-\x7e]+$/.test(name) && !name.startsWith('"') ? name : asciiJson(name));
+  for (const [original, safe] of nodeMap) if (original !== safe) out.push(`*@node ${safe} ${literal(original)}`);
+  for (const [original, safe] of modelMap) if (original !== safe) out.push(`*@model ${safe} ${literal(original)}`);
 
   for (const el of circuit.elements) {
     const plain = plainlyWritten(el);
