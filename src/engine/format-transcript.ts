@@ -8,6 +8,8 @@ function entryLines(e: TranscriptEntry, n: number, wording: Wording): string[] {
   const where = e.testPoint ? ` at ${e.testPoint.id} (${e.testPoint.label})` : '';
   const under = e.condition ? `, ${e.condition.label}` : '';
   const lines = [`${String(n).padStart(2)}. [${e.node}] ${e.kind}${where}${under}`, `    ${e.say[wording]}`];
+  // Someone who does not know the test point names needs the board's own words for where the probes go.
+  if (wording === 'customer' && e.testPoint && !e.skipped) lines.push(`    probes: ${e.testPoint.probe}`);
   if (e.skipped) lines.push(`    skipped: ${e.skipped}`);
   if (e.reading && e.expected) {
     lines.push(`    expected ${e.expected.text}; read ${showValue(e.reading.value, e.expected.unit)} → ${e.reading.outcome}`);

@@ -12,7 +12,7 @@ export interface TranscriptEntry {
   /** Why the step was passed over, when it was. */
   skipped?: string;
   condition?: { id: string; label: string };
-  testPoint?: { id: string; label: string };
+  testPoint?: { id: string; label: string; probe: string };
   expected?: ExpectedBand & { text: string };
   reading?: { text: string; value: number; outcome: string; branch: string };
   answer?: { id: string; label: string };
@@ -47,7 +47,7 @@ export function transcriptOf(walk: WalkSetup, snapshot: { value: unknown; contex
     const entry: TranscriptEntry = { node: id, kind: plan.node.kind, say: plan.node.say };
     if (context.skipped[id] !== undefined) entry.skipped = context.skipped[id];
     if (plan.condition) entry.condition = { id: plan.condition.id, label: plan.condition.label };
-    if (plan.testPoint) entry.testPoint = { id: plan.testPoint.id, label: plan.testPoint.label };
+    if (plan.testPoint) entry.testPoint = { id: plan.testPoint.id, label: plan.testPoint.label, probe: plan.testPoint.probe };
     const r = context.readings[id];
     if (r) {
       entry.expected = { ...r.band, text: describeBand(r.band) };

@@ -72,6 +72,7 @@ describe('voltwalk walk', () => {
   it('--customer uses the customer wording', async () => {
     const r = await walk('--tree', 'first-power-up', '--answers', answersFile, '--customer');
     expect(r.out).toContain('Good news: the module powers up correctly.');
+    expect(r.out).toMatch(/\[rail-pos\][^\n]*\n[^\n]*\n    probes: \S/);
   });
 
   it('a missing answer prints the transcript so far and names the step that needs one (exit 1)', async () => {
