@@ -1,12 +1,129 @@
 /**
- * Solver speed on a board-sized circuit (~80 nodes: op-amp stages, a differential pair per
- * stage, rectifier diodes, LEDs, pots), the size the fault dictionary solves over and over.
- * Reports medians of: compile + cold solve, warm solve on a kept solver, warm solveDC that
- * recompiles each time (what a caller pays when every fault builds a fresh Circuit), and one AC
- * frequency point on a kept linearisation.
+ * Solver speed, for the README.
+ *
+ * 1. The bundled demo board, quiescent condition (a stand-in 60-node netlist when no board is
+ *    bundled): median warm DC operating point; cold time from netlist text (parse + compile +
+ *    solve); and the fault-dictionary workload — 300 operating points, one part changed each time
+ *    (each resistor and pot in turn ×10, then ÷10), every one warm-started from the healthy point
+ *    as the dictionary does — timed in voltwalk and in the reference simulator, ngspice 45 via
+ *    eecircuit-engine 1.8.0, in-process, one netlist per operating point (an `alter` in a .control
+ *    block returns no structured result through this package). ngspice gets the healthy point as
+ *    `.nodeset`, the same head start; writing its netlists is not timed, only setNetList + runSim.
+ *    Targets: ≤ 0.3 ms per warm operating point, and faster per operating point than the reference.
+ * 2. A synthetic board-sized circuit (~80 nodes): compile + cold solve, kept-solver solves, AC.
  */
-import { createAcSolver, createDcSolver, solveDC, ledModel, type Circuit, type Element } from '../src/circuit/index.js';
+import { existsSync } from 'node:fs';
+import { Simulation } from 'eecircuit-engine';
+import { DEMO_BOARD_FILE, buildCircuit, loadBoard } from '../src/board/index.js';
+import { createAcSolver, createDcSolver, solveDC, ledModel, ConvergenceError, type Circuit, type DcSolution, type Element } from '../src/circuit/index.js';
+import { parseNetlist, writeNetlist } from '../src/circuit/spice/index.js';
 import { fmt, median, timeRuns } from './timing.js';
+
+const VARIANTS = Number(process.env.VOLTWALK_BENCH_VARIANTS ?? 300);
+const WARM_TARGET_MS = 0.3;
+
+/** The demo board under its quiescent condition, or the synthetic circuit when no board is bundled. */
+function benchCircuit(): { label: string; circuit: Circuit } {
+  if (existsSync(DEMO_BOARD_FILE)) {
+    const board = loadBoard(DEMO_BOARD_FILE);
+    return { label: `${board.name}, quiescent`, circuit: buildCircuit(board, 'quiescent').circuit };
+  }
+  return { label: 'synthetic 60-node stand-in', circuit: boardSizedCircuit(5) };
+}
+
+/** Each resistor and pot in turn ×10, then each ÷10, and round again, until `count` variants. */
+function oneChangeVariants(circuit: Circuit, count: number): Circuit[] {
+  const targets = circuit.elements.map((e, i) => [e, i] as const).filter(([e]) => e.kind === 'resistor' || e.kind === 'pot');
+  const out: Circuit[] = [];
+  for (let k = 0; out.length < count; k++) {
+    const [element, index] = targets[k % targets.length];
+    const factor = Math.floor(k / targets.length) % 2 === 0 ? 10 : 0.1;
+    const changed = { ...element, value: (element as { value: number }).value * factor } as Element;
+    const elements = circuit.elements.slice();
+    elements[index] = changed;
+    out.push({ ...circuit, elements });
+  }
+  return out;
+}
+
+async function ngspiceTimes(netlists: string[]): Promise<{ times: number[]; failures: number; start: number }> {
+  const t0 = performance.now();
+  const sim = new Simulation();
+  await sim.start();
+  const start = performance.now() - t0;
+  // A first good run, so a failed run later cannot leave the engine without a result file.
+  sim.setNetList('warm-up\nv1 1 0 1\nr1 1 0 1\n.op\n.end\n');
+  await sim.runSim();
+  const quiet = console.error;
+  console.error = () => {}; // ngspice's notes go to stderr; printing them would be timed too
+  const times: number[] = [];
+  let failures = 0;
+  try {
+    for (const text of netlists) {
+      const t = performance.now();
+      sim.setNetList(text);
+      await sim.runSim();
+      times.push(performance.now() - t);
+      if (sim.getError().some((l) => /^\s*error\b|interrupted|not parsed/i.test(l))) failures++;
+    }
+  } finally {
+    console.error = quiet;
+  }
+  return { times, failures, start };
+}
+
+async function demoBoardTable(): Promise<void> {
+  const { label, circuit } = benchCircuit();
+  const solver = createDcSolver(circuit);
+  const nominal = solver.solve();
+  const nodes = Object.keys(nominal.nodes).length - 1;
+
+  // Warm: a compiled solver, warm-started from the last answer, after JIT warm-up.
+  const warm = median(timeRuns(() => void solver.solve({ initial: nominal }), 300, 20));
+  const warmFresh = median(timeRuns(() => void solveDC(circuit, { initial: nominal }), 200, 20));
+  // Cold: from netlist text — parse, compile, solve from zero.
+  const text = writeNetlist(circuit);
+  const firstT = performance.now();
+  solveDC(parseNetlist(text).circuit);
+  const first = performance.now() - firstT;
+  const cold = median(timeRuns(() => void solveDC(parseNetlist(text).circuit), 50, 3));
+
+  // The fault-dictionary workload.
+  const variants = oneChangeVariants(circuit, VARIANTS);
+  const ours: number[] = [];
+  let oursFailed = 0;
+  let iterations = 0;
+  for (const v of variants) {
+    const t = performance.now();
+    try {
+      iterations += solveDC(v, { initial: nominal }).iterations;
+    } catch (error) {
+      if (!(error instanceof ConvergenceError)) throw error;
+      oursFailed++;
+    }
+    ours.push(performance.now() - t);
+  }
+  const netlists = variants.map((v) => writeNetlist(v, { nodeset: nominal.nodes }));
+  const ref = await ngspiceTimes(netlists);
+  const sum = (xs: number[]) => xs.reduce((a, b) => a + b, 0);
+  const oursMedian = median(ours);
+  const refMedian = median(ref.times);
+
+  console.log(`${label}: ${nodes} nodes, ${circuit.elements.length} elements, ${solver.compiled.size} unknowns; ${VARIANTS} one-part variants`);
+  console.log('');
+  console.log(`| measure | voltwalk | ngspice 45 (eecircuit-engine 1.8.0) | target |`);
+  console.log(`|---|---|---|---|`);
+  console.log(`| warm DC operating point (kept solver, warm start) | ${fmt(warm)} | — | ≤ ${WARM_TARGET_MS} ms ${warm <= WARM_TARGET_MS ? 'met' : 'missed'} |`);
+  console.log(`| warm DC operating point (solveDC, compiles each time) | ${fmt(warmFresh)} | — | |`);
+  console.log(`| cold: parse netlist + compile + solve from 0 V (median / first in process) | ${fmt(cold)} / ${fmt(first)} | — | |`);
+  console.log(`| ${VARIANTS} operating points, one part changed each: median per point | ${fmt(oursMedian)} | ${fmt(refMedian)} | faster than the reference ${oursMedian < refMedian ? 'met' : 'missed'} |`);
+  console.log(`| … total | ${fmt(sum(ours))} | ${fmt(sum(ref.times))} | |`);
+  console.log(`| … points not solved | ${oursFailed} | ${ref.failures} | 0 |`);
+  console.log(`| ratio, reference / voltwalk, median per point | ${(refMedian / oursMedian).toFixed(1)}× | | |`);
+  console.log(`| reference engine start (once per process) | — | ${fmt(ref.start)} | |`);
+  console.log('');
+  console.log(`(voltwalk: ${(iterations / Math.max(1, variants.length - oursFailed)).toFixed(1)} Newton iterations per variant on average)`);
+}
 
 export function boardSizedCircuit(stages = 6): Circuit {
   const op = { gain: 2e5, rout: 75, rin: 1e12, headroom: 1.5, iq: 1.4e-3, vos: 0, en: 0, in: 0 };
@@ -57,7 +174,15 @@ export function boardSizedCircuit(stages = 6): Circuit {
   };
 }
 
+
 export async function run(): Promise<void> {
+  await demoBoardTable();
+  console.log('');
+  console.log('Synthetic board-sized circuits (solver internals):');
+  await syntheticCircuits();
+}
+
+async function syntheticCircuits(): Promise<void> {
   for (const stages of [6, 9]) {
     const c = boardSizedCircuit(stages);
     const solver = createDcSolver(c);
