@@ -39,6 +39,15 @@ describe('voltwalk parts', () => {
     expect(await run(['parts', '--board', 'broken-pin-no-net.json'], io)).toBe(1);
     expect(io.err()).toBe('voltwalk: broken-pin-no-net.json'.replace('broken', `${fixtures}/broken`) + ': parts[10].pins: R2 pin "2" is on no net (accepted: every pin of a resistor on a net: resistor pins "1", "2")\n');
   });
+  it('without --board: the bundled demo board, every resistor with its bands', async () => {
+    const io = memoryIo({ cwd: fixtures });
+    expect(await run(['parts', '--json'], io)).toBe(0);
+    const { board, parts } = JSON.parse(io.out());
+    expect(board).toBe('wenlow-tamp');
+    const resistors = parts.filter((p: { kind: string }) => p.kind === 'resistor');
+    expect(resistors.length).toBeGreaterThan(0);
+    for (const r of resistors) expect(r.bands?.length, r.ref).toBeGreaterThanOrEqual(4);
+  });
   it('an unknown option is a usage error', async () => {
     const io = memoryIo({ cwd: fixtures });
     expect(await run(['parts', '--bord', 'x'], io)).toBe(2);
