@@ -53,6 +53,19 @@ describe('linear textbook circuits', () => {
   });
 });
 
+describe('the Lambert W helper itself', () => {
+  it('W(e) = 1, W(1) = Ω ≈ 0.567143 (the omega constant, from memory), W(x)·e^W(x) = x', () => {
+    expect(lambertW(Math.E)).toBeCloseTo(1, 14);
+    expect(lambertW(1)).toBeCloseTo(0.567143290409784, 12);
+    for (const x of [1e-6, 0.3, 7, 1e5, 1e50]) {
+      const w = lambertW(x);
+      expect(w * Math.exp(w) / x).toBeCloseTo(1, 12);
+    }
+    const w = lambertWOfExp(1000);
+    expect(w + Math.log(w)).toBeCloseTo(1000, 10);
+  });
+});
+
 describe('diode and resistor against the Lambert W closed form', () => {
   // Series diode–resistor from Vs: I = (nVt/R)·W((Is·R/nVt)·exp((Vs + Is·R)/nVt)) − Is, the standard
   // explicit solution of Vs = I·R + nVt·ln(I/Is + 1) (e.g. Banwell & Jayakumar, Electronics Letters 36(4), 2000).
