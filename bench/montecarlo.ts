@@ -18,7 +18,8 @@ const TARGET_MS = 150;
 interface Run {
   wall: number;
   cpu: number;
-  failures: number;
+  /** Samples lost: wholly (failures) or, for the reading that lost most, one circuit of the sample. */
+  lost: number;
 }
 
 function measure(distributions: Distribution[], evaluate: Evaluate): Run {
@@ -27,7 +28,7 @@ function measure(distributions: Distribution[], evaluate: Evaluate): Run {
   const r = monteCarlo(distributions, evaluate, { samples: SAMPLES, seed: 1 });
   const wall = performance.now() - t0;
   const c = process.cpuUsage(c0);
-  return { wall, cpu: (c.user + c.system) / 1000, failures: r.failures };
+  return { wall, cpu: (c.user + c.system) / 1000, lost: r.failures + r.missing.reduce((a, b) => Math.max(a, b), 0) };
 }
 
 export async function run(): Promise<void> {
@@ -56,7 +57,7 @@ export async function run(): Promise<void> {
   const cpu = median(runs.map((r) => r.cpu));
   console.log(
     `${SAMPLES} samples, all conditions: median ${fmt(wall)} wall, ${fmt(cpu)} CPU over ${runs.length} run(s); ` +
-      `${solvesPerRun} solves (${fmt(cpu / solvesPerRun)} CPU per solve), ${runs[0].failures} samples not solved; ` +
+      `${solvesPerRun} solves (${fmt(cpu / solvesPerRun)} CPU per solve), ${runs[0].lost} samples not solved (worst reading); ` +
       `target ${TARGET_MS} ms: ${(cpu / TARGET_MS).toFixed(0)}× the target in CPU time`,
   );
 
@@ -65,7 +66,7 @@ export async function run(): Promise<void> {
   for (const pc of ev.perCondition) {
     const r = measure(distributions, pc.evaluate);
     sum += r.cpu;
-    console.log(`  ${pc.condition.padEnd(22)} ${fmt(r.cpu)} CPU, ${r.failures} not solved`);
+    console.log(`  ${pc.condition.padEnd(22)} ${fmt(r.cpu)} CPU, ${r.lost} not solved`);
   }
   console.log(`  sum over conditions: ${fmt(sum)} CPU`);
 
