@@ -1,3 +1,5 @@
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
 import type { Board } from '../schemas/board.js';
 import { buildCircuit, measureAll, testPointsFor, withSubstitutions } from '../board/index.js';
 import { solveDC, type DcSolution } from '../circuit/index.js';
@@ -65,6 +67,16 @@ export function buildDictionary(board: Board, options: DictionaryOptions = {}): 
     if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
   }
   return built;
+}
+
+/** Whether buildDictionary would find this dictionary ready (in memory or on disk) instead of solving. */
+export function dictionaryReady(board: Board, options: DictionaryOptions = {}): boolean {
+  const subject = options.substitutions && Object.keys(options.substitutions).length > 0 ? withSubstitutions(board, options.substitutions) : board;
+  const key = cacheKey(subject, options);
+  if (key === undefined) return false;
+  if (cache.has(key)) return true;
+  if (!options.diskCache) return false;
+  return existsSync(join(options.diskCache.dir, `${dictionaryKey(subject, options.conditions, options.noFaultPrior, options.diskCache.version)}.json`));
 }
 
 const CACHE_SIZE = 8;

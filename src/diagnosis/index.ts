@@ -1,7 +1,7 @@
 export { faultsFor } from './faults-for.js';
 export { applyFault, REVERSED_ELECTROLYTIC_OHMS } from './apply-fault.js';
 export { OPEN_OHMS, SHORT_OHMS } from './board-edits.js';
-export { buildDictionary, clearDictionaryCache, type DictionaryOptions, type BuiltDictionary } from './dictionary.js';
+export { buildDictionary, clearDictionaryCache, dictionaryReady, type DictionaryOptions, type BuiltDictionary } from './dictionary.js';
 export { rankSuspects, type RankOptions } from './rank-suspects.js';
 export { RankResultSchema, SuspectSchema, SuspectGroupSchema, NextProbeSchema, type RankResult, type Suspect, type SuspectGroup } from './rank-result.js';
 export { FAULT_MODES, DEFAULT_NO_FAULT_PRIOR, modeWeight, type FaultMode, type FaultModeId } from './fault-modes.js';

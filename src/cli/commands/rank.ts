@@ -6,7 +6,7 @@ import type { Board } from '../../schemas/board.js';
 import { HAZARDS } from '../../schemas/tree.js';
 import { DEMO_BOARD_FILE, findCondition, findTestPoint, loadBoard, withSubstitutions } from '../../board/index.js';
 import { parseReading } from '../../units/index.js';
-import { defaultCacheDir, rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
+import { defaultCacheDir, dictionaryReady, rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
 import { version } from '../run.js';
 
 const HELP = `Usage: voltwalk rank [--board FILE] [--condition NAME] --reading TP=VALUE ... [--set REF=VALUE]... [--json]
@@ -61,6 +61,9 @@ export const command: Command = {
     }
     // Building the dictionary takes the solver a while on a full board: keep it for the next run.
     const diskCache = values['no-cache'] ? undefined : { dir: defaultCacheDir(io.env), version: version() };
+    if (!dictionaryReady(subject, { diskCache })) {
+      io.stderr(`voltwalk: simulating every modelled fault of ${subject.name} under each condition; this takes minutes the first time${diskCache ? ' and is kept for later runs' : ''}\n`);
+    }
     const result = rankSuspects(subject, readings, { limit, diskCache });
     if (values.json) io.stdout(`${JSON.stringify(result, null, 2)}\n`);
     else io.stdout(toText(subject, readings, result));
