@@ -6,7 +6,6 @@ import { UsageError, formatProblem, type Problem } from '../../errors.js';
 import { checkBoardFile } from '../../board/validate.js';
 import { parseJson } from '../../board/parse-json.js';
 import { BOARD_FORMAT } from '../../schemas/board.js';
-import { checkTreeFile } from '../../engine/check-tree-file.js';
 
 const TREE_FORMAT = 'voltwalk-tree/1';
 
@@ -37,7 +36,7 @@ interface FileReport {
   problems: Problem[];
 }
 
-function checkOne(file: string): FileReport {
+async function checkOne(file: string): Promise<FileReport> {
   let text: string;
   try {
     text = readFileSync(file, 'utf8');
@@ -50,6 +49,8 @@ function checkOne(file: string): FileReport {
   if (problem) return { file, kind: 'unknown', ok: false, summary: '', problems: [problem] };
   const format = value && typeof value === 'object' && !Array.isArray(value) ? (value as { format?: unknown }).format : undefined;
   if (typeof format === 'string' && format.startsWith('voltwalk-tree')) {
+    // The tree engine is loaded only when a tree is checked: a board check does not pay for it.
+    const { checkTreeFile } = await import('../../engine/check-tree-file.js');
     const problems = checkTreeFile(file);
     return { file, kind: 'tree', ok: problems.length === 0, summary: 'diagnostic tree', problems };
   }
@@ -85,7 +86,8 @@ export const command: Command = {
   async run(args, io) {
     const { values, positionals } = parseOptions(args, { json: { type: 'boolean' } });
     if (positionals.length === 0) throw new UsageError('check needs at least one FILE');
-    const reports = positionals.map((f) => checkOne(resolve(io.cwd, f)));
+    const reports: FileReport[] = [];
+    for (const f of positionals) reports.push(await checkOne(resolve(io.cwd, f)));
     // Name files as the user typed them.
     reports.forEach((r, i) => {
       r.file = positionals[i];
