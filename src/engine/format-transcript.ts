@@ -14,8 +14,12 @@ function entryLines(e: TranscriptEntry, n: number, wording: Wording): string[] {
   if (e.reading && e.expected) {
     lines.push(`    expected ${e.expected.text}; read ${showValue(e.reading.value, e.expected.unit)} → ${e.reading.outcome}`);
   }
-  if (e.answer && !e.reading) lines.push(`    answer: ${e.answer.label}`);
+  if (e.answer && !e.reading) lines.push(`    answer: ${answerText(e, wording)}`);
   return lines;
+}
+
+function answerText(e: TranscriptEntry, wording: Wording): string {
+  return (wording === 'customer' ? e.answer?.customerLabel : undefined) ?? e.answer?.label ?? '';
 }
 
 function partLine(p: PartView): string {
@@ -60,8 +64,8 @@ const cell = (s: string) => s.replace(/\|/g, '\\|').replace(/\n/g, ' ');
 export function formatTranscriptMarkdown(t: Transcript, wording: Wording = 'technician'): string {
   const lines = [`## ${cell(t.tree.symptom)}`, '', ...header(t).map((l) => `- ${cell(l)}`), '', '| # | Step | Where | Expected | Reading | Outcome / answer |', '|---|---|---|---|---|---|'];
   t.entries.forEach((e, i) => {
-    const where = e.testPoint ? `${e.testPoint.id} ${e.testPoint.label}` : '';
-    const result = e.skipped ? `skipped: ${e.skipped}` : e.reading ? e.reading.outcome : (e.answer?.label ?? '');
+    const where = e.testPoint ? `${e.testPoint.id} ${e.testPoint.label}${wording === 'customer' ? ` (${e.testPoint.probe})` : ''}` : '';
+    const result = e.skipped ? `skipped: ${e.skipped}` : e.reading ? e.reading.outcome : answerText(e, wording);
     lines.push(`| ${i + 1} | ${cell(e.say[wording])} | ${cell(where)} | ${e.expected ? cell(e.expected.text) : ''} | ${e.reading ? cell(e.reading.text) : ''} | ${cell(result)} |`);
   });
   lines.push('', ...currentLines(t.current, wording).map((l, i) => (i === 0 ? `**${l}**` : l.startsWith('    ') ? `- ${l.trim()}` : l.trim())));

@@ -15,7 +15,7 @@ export interface TranscriptEntry {
   testPoint?: { id: string; label: string; probe: string };
   expected?: ExpectedBand & { text: string };
   reading?: { text: string; value: number; outcome: string; branch: string };
-  answer?: { id: string; label: string };
+  answer?: { id: string; label: string; customerLabel?: string };
 }
 
 /** A walk so far, for printing, saving with a case, or the UI's summary. */
@@ -30,11 +30,11 @@ export interface Transcript {
   stopped?: { node: string; problem: Problem };
 }
 
-function answerLabel(walk: WalkSetup, node: string, id: string): string {
+function answerLabels(walk: WalkSetup, node: string, id: string): { label: string; customerLabel?: string } {
   const n = walk.tree.nodes[node];
-  if (n?.kind === 'observe') return n.choices[id]?.label ?? id;
-  if (n?.kind === 'inspect') return id === 'ok' ? 'looks right' : 'found a problem';
-  return id === 'done' ? 'acknowledged' : id;
+  if (n?.kind === 'observe') return { label: n.choices[id]?.label ?? id, customerLabel: n.choices[id]?.customerLabel };
+  if (n?.kind === 'inspect') return id === 'ok' ? { label: 'looks right', customerLabel: 'it looks like the picture' } : { label: 'found a problem', customerLabel: 'something looks different' };
+  return { label: id === 'done' ? 'acknowledged' : id };
 }
 
 /** The steps met (current one excluded), each with its reading or answer, from the walk's context. */
@@ -54,7 +54,7 @@ export function transcriptOf(walk: WalkSetup, snapshot: { value: unknown; contex
       entry.reading = { text: r.text, value: r.value, outcome: r.outcome, branch: r.branch };
     }
     const a = context.answers[id];
-    if (a !== undefined) entry.answer = { id: a, label: answerLabel(walk, id, a) };
+    if (a !== undefined) entry.answer = { id: a, ...answerLabels(walk, id, a) };
     return entry;
   });
   return {
