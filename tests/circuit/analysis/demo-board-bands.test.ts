@@ -1,0 +1,29 @@
+import { describe, expect, it } from 'vitest';
+import { DEMO_BOARD_FILE, loadBoard } from '../../../src/board/index.js';
+import { boardEvaluator, detectorTimes, monteCarlo, worstCase } from '../../../src/circuit/analysis/index.js';
+
+describe('bands on the bundled demo board', () => {
+  const board = loadBoard(DEMO_BOARD_FILE);
+
+  it('worst case contains every Monte Carlo board at every quiescent test point', () => {
+    const ev = boardEvaluator(board, ['quiescent']);
+    const [pc] = ev.perCondition;
+    const wc = worstCase(ev.deviations.length, pc.evaluate);
+    const mc = monteCarlo(ev.deviations.map((d) => d.distribution), ev.evaluate, { samples: 200, seed: 1 });
+    const outside: string[] = [];
+    pc.outputs.forEach((o, k) => {
+      const slack = 1e-6 * (1 + Math.abs(wc.nominal[k]));
+      if (mc.min[o] < wc.min[k] - slack || mc.max[o] > wc.max[k] + slack) outside.push(ev.outputs[o].testPoint);
+    });
+    expect(outside).toEqual([]);
+    expect(wc.failures + mc.failures).toBe(0);
+  }, 300_000);
+
+  it('gives attack and release times from the roles at mid-rotation', () => {
+    const t = detectorTimes(board, 'quiescent');
+    // τ = R·C and the 10–90 % time τ·ln 9 (first-order step response, textbook)
+    expect(t.attack.tau).toBeCloseTo(t.attack.resistance * t.attack.capacitance, 15);
+    expect(t.release.riseTime).toBeCloseTo(t.release.tau * Math.log(9), 12);
+    expect(t.release.tau).toBeGreaterThan(t.attack.tau);
+  });
+});
