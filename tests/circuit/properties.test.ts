@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { solveDC, type Element, type Circuit } from '../../src/circuit/index.js';
+import { solveDC, type Element, type Circuit, type Model } from '../../src/circuit/index.js';
 import { circuit } from './helpers.js';
 
 /** Plain nodal analysis with Gaussian elimination, written independently of the solver. */
@@ -128,7 +128,7 @@ describe('properties of linear networks', () => {
 });
 
 describe('properties of nonlinear networks', () => {
-  const models = [
+  const models: Model[] = [
     { name: 'd', type: 'D' as const, params: { IS: 2.5e-9, N: 1.75, RS: 0.6 } },
     { name: 'z', type: 'D' as const, params: { IS: 1e-14, BV: 4.7, IBV: 1e-3 } },
     { name: 'qn', type: 'NPN' as const, params: { IS: 1e-14, BF: 200, VAF: 80, RB: 50 } },
