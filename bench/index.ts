@@ -8,7 +8,7 @@ import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { dirname, join } from 'node:path';
 
-const MODULES = ['solver', 'montecarlo', 'dictionary', 'startup'];
+const MODULES = ['solver', 'montecarlo', 'dictionary', 'engine', 'startup'];
 const here = dirname(fileURLToPath(import.meta.url));
 const wanted = process.argv.slice(2).filter((a) => !a.startsWith('-'));
 
