@@ -54,6 +54,7 @@ export const PART_ROLES = {
   'vca-tail': 'the part that sets the VCA control current',
   'vca-opamp': 'the op-amp around the VCA',
   'sidechain-hp-switch': 'the sidechain high-pass switch',
+  'bypass-switch': 'the switch that routes the input straight to the output',
   'sidechain-hp-capacitor': 'the sidechain high-pass capacitor',
   'rectifier-diodes': 'the rectifier diodes',
   'rectifier-opamp': 'the op-amp of the rectifier',
