@@ -1,7 +1,7 @@
 import { UserInputError } from '../errors.js';
 import type { Hazard, Wording } from '../schemas/tree.js';
 import { HAZARDS } from '../schemas/tree.js';
-import { bandsFor, formatValue, parseReading, parseValue } from '../units/index.js';
+import { bandsFor, formatReading, formatValue, parseReading, parseValue } from '../units/index.js';
 import type { ExpectedBand } from './outcome.js';
 import { rankFor, type Ranking } from './ranking.js';
 import { SAFETY_HOLD, type WalkContext, type WalkEvent } from './walk-context.js';
@@ -56,7 +56,7 @@ export const OVERLOAD = /^\s*(ol|o\.l\.?|overload|open|inf(inity)?|∞)\s*$/i;
 
 /** A value as a person reads it; an infinite resistance is the meter's overload display. */
 export function showValue(value: number, unit: string): string {
-  return Number.isFinite(value) ? formatValue(value, unit) : 'overload (open)';
+  return Number.isFinite(value) ? formatReading(value, unit) : 'overload (open)';
 }
 
 export function describeBand(band: ExpectedBand): string {

@@ -35,3 +35,15 @@ export function formatValue(value: number, unit = '', significant = 3): string {
   const sep = unit || prefix ? ' ' : '';
   return `${text}${sep}${prefix}${unit}`;
 }
+
+/**
+ * A reading or an expected value for the bench: four significant figures, as a handheld meter shows
+ * a rail (11.77 V, not 11.8 V), and anything below 10 µV (or 1 mΩ) as a plain zero — solver
+ * residue such as 2.5 pV is not something a meter can display.
+ */
+export function formatReading(value: number, unit: string): string {
+  if (!Number.isFinite(value)) return formatValue(value, unit);
+  const floor = unit === 'Ω' ? 1e-3 : 1e-5;
+  if (Math.abs(value) < floor) return formatValue(0, unit);
+  return formatValue(value, unit, 4);
+}

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { formatValue, parseReading, parseValue } from '../../src/units/index.js';
+import { formatReading, formatValue, parseReading, parseValue } from '../../src/units/index.js';
 import { UserInputError } from '../../src/errors.js';
 
 describe('parseValue: IEC 60062 letter code (RKM)', () => {
@@ -155,5 +155,19 @@ describe('formatValue', () => {
         expect(parseValue(text).value / scale).toBeCloseTo(Number(`${a}.${b}`), 9);
       }),
     );
+  });
+});
+
+describe('formatReading', () => {
+  it('shows four figures, as a meter does for a rail', () => {
+    expect(formatReading(11.774, 'V')).toBe('11.77 V');
+    expect(formatReading(-0.98766, 'V')).toBe('-987.7 mV');
+    expect(formatReading(77_140, 'Ω')).toBe('77.14 kΩ');
+  });
+
+  it('shows solver residue below 10 µV as zero', () => {
+    expect(formatReading(-2.55e-12, 'V')).toBe('0 V');
+    expect(formatReading(9e-6, 'V')).toBe('0 V');
+    expect(formatReading(2e-5, 'V')).toBe('20 µV');
   });
 });
