@@ -35,7 +35,7 @@ export class Terminal {
 
   /** Literal text, as typed. */
   type(text: string): void {
-    this.tmux('send-keys', '-t', 'e2e', '-l', text);
+    this.tmux('send-keys', '-t', 'e2e', '-l', '--', text);
   }
 
   /** Named keys: Enter, Down, Escape, C-c. */

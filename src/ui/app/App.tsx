@@ -42,12 +42,18 @@ export function App({ boardFile, folder, cwd, wording, loadServices, onExit }: A
   const [, setVersion] = useState(0);
   const [warm, setWarm] = useState<Services.WarmupState>({ state: 'working' });
   const stopWarm = useRef<(() => void) | undefined>(undefined);
+  const warmId = useRef(0);
+  /** Set while a walk is being opened, so a second Enter does not open a second walk. */
+  const opening = useRef(false);
   useEffect(() => () => stopWarm.current?.(), []);
 
   const warmFor = (svc: ServicesModule, r: Services.WalkRun, substitutions: Record<string, string | number>) => {
     stopWarm.current?.();
     setWarm({ state: 'working' });
+    const mine = ++warmId.current;
     stopWarm.current = svc.warmDictionary(r.board, r.boardFile, substitutions, (s) => {
+      // A worker stopped because a newer walk started has nothing to say about that walk.
+      if (mine !== warmId.current) return;
       setWarm(s);
       if (s.state === 'failed') dispatch({ type: 'notice', tone: 'bad', text: `ranking unavailable: ${s.problem}` });
     });
@@ -106,9 +112,17 @@ export function App({ boardFile, folder, cwd, wording, loadServices, onExit }: A
   const begin = (choice: StartChoice) => {
     if (!services || data.state !== 'ready') return;
     if (choice.type === 'symptom' || choice.type === 'resume') {
+      if (opening.current) return;
+      opening.current = true;
       // Starting a walk works out every expected reading on the board: say so before the wait.
       dispatch({ type: 'notice', tone: 'quiet', text: 'Working out the expected readings for this board…' });
-      setTimeout(() => open(choice), 20);
+      setTimeout(() => {
+        try {
+          open(choice);
+        } finally {
+          opening.current = false;
+        }
+      }, 20);
     } else dispatch({ type: 'show', screen: choice.type === 'parts' ? 'parts' : 'open-board' });
   };
 

@@ -38,7 +38,7 @@ export function formatCaseSummary(c: CaseSummary, style: SummaryStyle = 'md'): s
   if (c.suspects.length > 0) {
     lines.push('Suspects (most likely first):');
     for (const s of c.suspects.slice(0, MAX_SUSPECTS)) {
-      const who = s.parts.length > 1 ? `${s.faults.join(' or ')} (cannot tell apart yet)` : s.faults.join(', ');
+      const who = s.faults.length > 1 ? `${listFaults(s.faults)} (cannot tell apart yet)` : s.faults.join(', ');
       lines.push(`${s.rank}. ${who}, ${percent(s.probability)} — ${clip(s.why, 90)}${s.where.length ? ` (${clip(s.where.join('; '), 40)})` : ''}`);
     }
   }
@@ -48,6 +48,12 @@ export function formatCaseSummary(c: CaseSummary, style: SummaryStyle = 'md'): s
     lines.push(`${c.wording === 'customer' ? 'Ask the customer' : 'Ask'}: "${clip(c.next.question, 300)}"`);
   }
   return `${lines.join('\n')}\n`;
+}
+
+/** A group the readings cannot split may hold many faults; a chat line names the first few. */
+export function listFaults(faults: string[], shown = 3): string {
+  const head = faults.slice(0, shown).join(' or ');
+  return faults.length > shown ? `${head} or ${faults.length - shown} more` : head;
 }
 
 function percent(p: number): string {

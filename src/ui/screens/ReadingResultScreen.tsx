@@ -2,7 +2,7 @@ import React from 'react';
 import { Box, Text, useInput } from 'ink';
 import { Frame } from '../components/frame/Frame.js';
 import { BandGauge, VERDICT_WORDS } from '../components/band-gauge/BandGauge.js';
-import { verdictOf } from '../components/band-gauge/gauge-layout.js';
+import type { Verdict } from '../components/band-gauge/gauge-layout.js';
 import { Tinted } from '../theme/Tinted.js';
 import type { ExpectedBand } from '../../engine/outcome.js';
 
@@ -35,6 +35,12 @@ const OUTCOME_WORDS: Record<string, string> = {
   'near-zero': 'next to nothing',
 };
 
+/** The engine's outcome decides in band or not (it allows for meter accuracy); the side comes from the nominal. */
+export function verdictOfOutcome(result: Pick<ReadingResult, 'outcome' | 'value' | 'band'>): Verdict {
+  if (result.outcome === 'in-band') return 'in';
+  return result.value < result.band.nominal ? 'low' : 'high';
+}
+
 /** Where the reading fell against its band, before the walk moves on. */
 export function ReadingResultScreen({ width, title, stageMap, result, format, isActive = true, onContinue }: Props) {
   useInput(
@@ -43,7 +49,7 @@ export function ReadingResultScreen({ width, title, stageMap, result, format, is
     },
     { isActive },
   );
-  const verdict = verdictOf(result.band, result.value);
+  const verdict = verdictOfOutcome(result);
   return (
     <Frame title={title} width={width} hints={[{ key: 'Enter', does: 'next step' }, { key: 'Ctrl-C', does: 'quit, saved' }]}>
       {stageMap}
@@ -56,7 +62,7 @@ export function ReadingResultScreen({ width, title, stageMap, result, format, is
         </Text>
         <Text>The reading is {OUTCOME_WORDS[result.outcome] ?? result.outcome}. Saved.</Text>
         <Box marginTop={1}>
-          <BandGauge band={result.band} reading={result.value} width={width} format={(v) => format(v, result.band.unit)} />
+          <BandGauge band={result.band} reading={result.value} verdict={verdict} width={width} format={(v) => format(v, result.band.unit)} />
         </Box>
       </Box>
     </Frame>

@@ -4,6 +4,7 @@ import { Frame } from '../components/frame/Frame.js';
 import { Tinted } from '../theme/Tinted.js';
 import type { CaseSummary } from '../case/case-summary.js';
 import { partLine, type PartLineInfo } from '../parts/part-info.js';
+import { listFaults } from '../case/format-case-summary.js';
 
 interface Props {
   width: number;
@@ -55,9 +56,9 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
                 <Text wrap="truncate-end">
                   {String(g.rank).padStart(2)}. {`${Math.round(g.probability * 100)} %`.padStart(5)}{' '}
                   <Tinted tone="bad" bold>
-                    {g.faults.join(' or ')}
+                    {listFaults(g.faults)}
                   </Tinted>
-                  {g.parts.length > 1 ? ' (cannot tell apart yet)' : ''}
+                  {g.faults.length > 1 ? ' (cannot tell apart yet)' : ''}
                 </Text>
                 <Text wrap="truncate-end">{'          '}{g.why}</Text>
                 {g.parts.slice(0, 2).map((ref) => (

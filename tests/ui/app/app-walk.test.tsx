@@ -37,6 +37,7 @@ async function chooseSymptom(r: ReturnType<typeof app>, symptom: string): Promis
     f = r.lastFrame()!;
   }
   await press(r.stdin, ENTER);
+  await until(r.lastFrame, (s) => /INSPECT|MEASURE|CAUTION|SET UP|LOOK/.test(s), 'the first step', 300_000);
 }
 
 describe('the app, start to suspects', () => {

@@ -10,14 +10,20 @@ interface Props {
   width: number;
   /** Formats a value with its unit, e.g. "4.80 V". */
   format: (value: number) => string;
+  /**
+   * The verdict the engine reached, when it differs from a plain comparison with the band edges:
+   * the engine allows for the meter's own accuracy, so a reading a hair outside is still in band.
+   */
+  verdict?: Verdict;
 }
 
 export const VERDICT_WORDS: Record<Verdict, string> = { in: 'in band', low: 'LOW', high: 'HIGH' };
 
 /** The healthy band on a horizontal scale and, once read, where the reading fell. */
-export function BandGauge({ band, reading, width, format }: Props) {
+export function BandGauge({ band, reading, width, format, verdict }: Props) {
   const colour = useColour();
-  const layout = layoutGauge(band, reading, width);
+  const plain = layoutGauge(band, reading, width);
+  const layout = verdict && plain.verdict ? { ...plain, verdict } : plain;
   const before = layout.scale.slice(0, layout.bandFrom);
   const inside = layout.scale.slice(layout.bandFrom, layout.bandTo + 1);
   const after = layout.scale.slice(layout.bandTo + 1);
