@@ -118,12 +118,12 @@ export function PartsScreen({ width, board, substitutions, services, cwd, isActi
       <Box flexDirection="column">
         {stage.parts.slice(first, first + ROWS_SHOWN).map((r, i) => {
           const info = services.engine.describePart(current, r);
-          const changed = r in substitutions;
+          // A changed part says so before its location, so the mark survives a narrow terminal.
+          const kit = r in substitutions ? `changed, kit ${String(board.parts.find((p) => p.ref === r)?.value)}` : undefined;
           return (
             <Text key={r} wrap="truncate-end">
               {first + i === state.row ? '> ' : '  '}
-              {partLine(info)}
-              {changed ? <Tinted tone="caution"> (changed; kit {String(board.parts.find((p) => p.ref === r)?.value)})</Tinted> : ''}
+              {partLine({ ...info, where: kit ? `${kit} · ${info.where}` : info.where })}
             </Text>
           );
         })}
@@ -152,7 +152,7 @@ export function PartsScreen({ width, board, substitutions, services, cwd, isActi
           onSubmit={({ subs, ignored }) => {
             const changed = Object.keys(subs).filter((k) => !(k in substitutions)).length;
             onChange(subs);
-            setNotice(`imported: ${changed} value(s) differ from the kit${ignored.length ? `; not on this board or without a value: ${ignored.slice(0, 5).join(', ')}${ignored.length > 5 ? ', …' : ''}` : ''}`);
+            setNotice(`imported ${changed} changed value(s)${ignored.length ? `; ignored, no value or not on board: ${ignored.slice(0, 4).join(', ')}${ignored.length > 4 ? ', …' : ''}` : ''}`);
             setMode('browse');
           }}
           onCancel={() => setMode('browse')}
