@@ -6,6 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { App } from '../../../src/ui/app/App.js';
 import { DEMO_BOARD_FILE } from '../../../src/board/index.js';
+import { findTree } from '../../../src/engine/load-tree.js';
 import { ARROW_DOWN, ENTER, press, settle } from '../keys.js';
 
 /**
@@ -76,6 +77,20 @@ describe('the app, start to suspects', () => {
     expect(summary).toContain(text.split('\n')[0]);
     expect(text.split('\n').length).toBeLessThanOrEqual(26);
     expect(text).toMatch(/Readings \(healthy band in brackets\):/);
+    r.unmount();
+  }, 600_000);
+
+  it('speaks to a customer after w on the start screen: the tree\'s customer wording', async () => {
+    const folder = mkdtempSync(join(tmpdir(), 'voltwalk-app-'));
+    const r = app(folder);
+    await until(r.lastFrame, (s) => s.includes('What is wrong'), 'the start screen');
+    await press(r.stdin, 'w');
+    expect(r.lastFrame()).toContain('Wording: for a customer (plain words, for a support chat)');
+    await chooseSymptom(r, 'A freshly soldered board');
+    const tree = findTree('first-power-up');
+    const first = tree.nodes[tree.start];
+    expect(r.lastFrame()).toContain(first.say.customer.slice(0, 60));
+    expect(r.lastFrame()).toContain('> it looks like the picture');
     r.unmount();
   }, 600_000);
 
