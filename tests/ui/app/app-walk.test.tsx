@@ -31,14 +31,14 @@ async function until(frame: () => string | undefined, test: (s: string) => boole
   throw new Error(`timed out waiting for ${what}; last frame:\n${frame()}`);
 }
 
-async function chooseSymptom(r: ReturnType<typeof app>, symptom: string): Promise<void> {
+async function chooseSymptom(r: ReturnType<typeof app>, symptom: string, walk = !symptom.startsWith('Open')): Promise<void> {
   let f = await until(r.lastFrame, (s) => /What is wrong|Carry on/.test(s), 'the start screen');
   for (let i = 0; i < 15 && !f.includes(`> ${symptom}`); i++) {
     await press(r.stdin, ARROW_DOWN);
     f = r.lastFrame()!;
   }
   await press(r.stdin, ENTER);
-  await until(r.lastFrame, (s) => /INSPECT|MEASURE|CAUTION|SET UP|LOOK/.test(s), 'the first step', 300_000);
+  if (walk) await until(r.lastFrame, (s) => /INSPECT|MEASURE|CAUTION|SET UP|LOOK/.test(s), 'the first step', 300_000);
 }
 
 describe('the app, start to suspects', () => {
@@ -91,6 +91,21 @@ describe('the app, start to suspects', () => {
     const first = tree.nodes[tree.start];
     expect(r.lastFrame()).toContain(first.say.customer.slice(0, 60));
     expect(r.lastFrame()).toContain('> it looks like the picture');
+    r.unmount();
+  }, 600_000);
+
+  it('opens another board file typed in, refusing a path that is not a board with a one-line reason', async () => {
+    const folder = mkdtempSync(join(tmpdir(), 'voltwalk-app-'));
+    const fixtures = join(import.meta.dirname, '..', '..', 'fixtures', 'boards');
+    const r = render(<App boardFile={DEMO_BOARD_FILE} folder={folder} cwd={fixtures} wording="technician" loadServices={loadServices} />);
+    await chooseSymptom(r, 'Open another board file');
+    await until(r.lastFrame, (s) => s.includes('Board file:'), 'the open-board screen');
+    await press(r.stdin, 'nothing-here.json', ENTER);
+    expect(r.lastFrame()).toMatch(/^! .*no such file/m);
+    for (let i = 0; i < 'nothing-here.json'.length; i++) r.stdin.write('\u007F');
+    await press(r.stdin, 'small-amp.json', ENTER);
+    const f = await until(r.lastFrame, (s) => s.includes('What is wrong') && !s.includes('Wenlow'), 'the start screen on the other board');
+    expect(f).toMatch(/^Board: .* · rails .* · \d+ parts$/m);
     r.unmount();
   }, 600_000);
 
