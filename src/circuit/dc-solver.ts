@@ -5,7 +5,10 @@
  * ./options.ts.
  *
  * createDcSolver compiles once and keeps its matrices and LU plan, so repeated solves of the
- * same circuit (sweeps, warm starts) only pay for the Newton iterations themselves.
+ * same circuit (sweeps, warm starts) only pay for the Newton iterations themselves. Part values
+ * can be changed in place between solves (setValue), which keeps the plan too: the matrix pattern
+ * never depends on values. solveLean is for inner loops that read a few node voltages: the same
+ * strategies and the same convergence test, but no per-element results.
  */
 import type { Circuit } from './netlist.js';
 import { compileCircuit, type CompiledCircuit } from './compile.js';
@@ -14,11 +17,43 @@ import { resolveDcOptions, type DcOptions, type ResolvedDcOptions } from './opti
 import type { DcSolution } from './dc-solution.js';
 import { buildDcSolution } from './dc-result.js';
 import { ConvergenceError } from './errors.js';
+import { badValue } from './check-values.js';
+import { UserInputError } from '../errors.js';
+import type { Device } from './devices/device.js';
+
+export interface LeanDcOptions extends Omit<DcOptions, 'initial'> {
+  /** Unknowns to start from, in this solver's order (compiled.unknownNames); all zero when absent. */
+  start?: Float64Array;
+}
+
+export interface LeanDcResult {
+  strategy: DcSolution['strategy'];
+  iterations: number;
+}
 
 export interface DcSolver {
   readonly compiled: CompiledCircuit;
   readonly engine: NewtonEngine;
   solve(options?: DcOptions): DcSolution;
+  /**
+   * The operating point left in `x`, with no DcSolution built. Converges by the same test as
+   * solve() (step within tolerance, no junction limited, KCL at every node with the devices' true
+   * currents), so `x` is what solve() would return; throws ConvergenceError likewise.
+   */
+  solveLean(options?: LeanDcOptions): LeanDcResult;
+  /**
+   * Changes one value of a compiled element in place: "value" of a resistor or pot, "position" of
+   * a pot, "dc" of a source, a law field of an op-amp ("vos", "gain"…), or a model parameter of
+   * one diode or transistor ("IS", "BF"…; other parts sharing its model keep theirs). The Circuit
+   * the solver was made from is not changed. UserInputError for an unknown element, a field it
+   * cannot change, or a bad value (the element then keeps its old value).
+   */
+  setValue(element: string, field: string, value: number): void;
+  setValues(changes: Iterable<readonly [element: string, field: string, value: number]>): void;
+  /** setValue with the element looked up once, for loops. */
+  valueSetter(element: string, field: string): (value: number) => void;
+  /** Whether setValue(element, field, …) can work on this circuit. */
+  canSet(element: string, field: string): boolean;
   /** The converged unknown vector of the last solve (shared; copy it to keep it). */
   readonly x: Float64Array;
 }
@@ -128,9 +163,8 @@ export function createDcSolver(circuit: Circuit): DcSolver {
     return solution;
   }
 
-  function solve(options: DcOptions = {}): DcSolution {
-    const opts = resolveDcOptions(options);
-    const warm = warmStart(options.initial);
+  /** Runs the strategy list from `start`; leaves the answer in x or throws ConvergenceError. */
+  function converge(opts: ResolvedDcOptions, warm: boolean): LeanDcResult {
     let total = 0;
     let last: NewtonOutcome | null = null;
     let lastStrategy = 'none';
@@ -140,21 +174,21 @@ export function createDcSolver(circuit: Circuit): DcSolver {
       seedFrom(warm ? x : null);
       const outcome = engine.run(x, opts, 0, 1);
       total += outcome.iterations;
-      if (outcome.converged) return finish(opts, 'newton', total);
+      if (outcome.converged) return { strategy: 'newton', iterations: total };
       last = outcome;
       lastStrategy = 'Newton';
     }
     if (!opts.skip.has('gmin')) {
       const { outcome, iterations } = gminStepping(opts, warm);
       total += iterations;
-      if (outcome.converged) return finish(opts, 'gmin', total);
+      if (outcome.converged) return { strategy: 'gmin', iterations: total };
       last = outcome;
       lastStrategy = 'gmin stepping';
     }
     if (!opts.skip.has('source')) {
       const { outcome, iterations } = sourceStepping(opts);
       total += iterations;
-      if (outcome.converged) return finish(opts, 'source', total);
+      if (outcome.converged) return { strategy: 'source', iterations: total };
       last = outcome;
       lastStrategy = 'source stepping';
     }
@@ -164,7 +198,58 @@ export function createDcSolver(circuit: Circuit): DcSolver {
     throw new ConvergenceError(names, lastStrategy, `${last?.detail ?? 'no strategy allowed'}; ${total} iterations`);
   }
 
-  return { compiled: cc, engine, solve, x };
+  function solve(options: DcOptions = {}): DcSolution {
+    const opts = resolveDcOptions(options);
+    const { strategy, iterations } = converge(opts, warmStart(options.initial));
+    return finish(opts, strategy, iterations);
+  }
+
+  function solveLean(options: LeanDcOptions = {}): LeanDcResult {
+    const opts = resolveDcOptions(options);
+    const given = options.start;
+    if (given) {
+      if (given.length !== n) throw new RangeError(`start has ${given.length} unknowns, the circuit ${n}`);
+      start.set(given);
+    } else {
+      start.fill(0);
+    }
+    return converge(opts, given !== undefined);
+  }
+
+  let byName: Map<string, Device> | null = null;
+  function device(element: string): Device {
+    byName ??= new Map(cc.devices.map((d) => [d.name, d]));
+    const d = byName.get(element);
+    if (d) return d;
+    throw new UserInputError({
+      code: 'circuit.unknown-element',
+      path: `elements.${element}`,
+      message: `no element ${element} in this circuit`,
+      accepted: 'the name of one of the circuit\'s elements',
+    });
+  }
+  function settable(d: Device, field: string): boolean {
+    return d.settable !== undefined && (d.settable.includes(field) || d.settable.includes(field.toUpperCase()));
+  }
+  function valueSetter(element: string, field: string): (value: number) => void {
+    const d = device(element);
+    const set = d.set;
+    if (!set || !settable(d, field)) {
+      throw badValue(element, field, 'a value to change', d.settable?.length ? `one of ${d.settable.join(', ')}` : 'nothing: this element has no value that can change in place');
+    }
+    return (value) => set.call(d, field, value);
+  }
+  const setValue = (element: string, field: string, value: number) => valueSetter(element, field)(value);
+  function setValues(changes: Iterable<readonly [string, string, number]>): void {
+    for (const [element, field, value] of changes) setValue(element, field, value);
+  }
+  function canSet(element: string, field: string): boolean {
+    byName ??= new Map(cc.devices.map((d) => [d.name, d]));
+    const d = byName.get(element);
+    return d !== undefined && d.set !== undefined && settable(d, field);
+  }
+
+  return { compiled: cc, engine, solve, solveLean, setValue, setValues, valueSetter, canSet, x };
 }
 
 /** One DC operating point. For many solves of one circuit, keep a createDcSolver instead. */

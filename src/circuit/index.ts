@@ -1,5 +1,5 @@
 export * from './netlist.js';
-export { solveDC, createDcSolver, type DcSolver } from './dc-solver.js';
+export { solveDC, createDcSolver, type DcSolver, type LeanDcOptions, type LeanDcResult } from './dc-solver.js';
 export type { DcSolution, ElementResult } from './dc-solution.js';
 export { type DcOptions, DEFAULT_DC_OPTIONS } from './options.js';
 export { ConvergenceError, StampError, SingularMatrixError } from './errors.js';

@@ -79,3 +79,33 @@ export function readModelParams(
   }
   return out;
 }
+
+/** Every parameter name a device reads at DC, with the aliases SPICE accepts for them. */
+export function settableParams(spec: ParamSpec): string[] {
+  return [...Object.keys(spec.defaults), ...Object.keys(spec.aliases ?? {})];
+}
+
+/**
+ * A copy of `model` with one parameter replaced (under its canonical name, dropping any alias
+ * spelling of it), for changing a compiled device's model in place. Only parameters the device
+ * reads at DC are accepted.
+ */
+export function withModelParam(model: Model, spec: ParamSpec, element: string, name: string, value: number): Model {
+  const upper = name.toUpperCase();
+  const canonical = spec.aliases?.[upper] ?? upper;
+  if (!(canonical in spec.defaults)) {
+    throw new UserInputError({
+      code: 'circuit.bad-value',
+      path: `elements.${element}.${name}`,
+      message: `${element} has no model parameter ${name} that can be changed`,
+      accepted: settableParams(spec).join(', '),
+    });
+  }
+  const params: Record<string, number> = {};
+  for (const [raw, v] of Object.entries(model.params)) {
+    const u = raw.toUpperCase();
+    if ((spec.aliases?.[u] ?? u) !== canonical) params[raw] = v;
+  }
+  params[canonical] = value;
+  return { ...model, params };
+}

@@ -1,6 +1,6 @@
 import type { Board } from '../../schemas/board.js';
 import { GROUND, type Circuit, type Element } from '../netlist.js';
-import { ConvergenceError, solveDC, type DcOptions, type DcSolution } from '../index.js';
+import { ConvergenceError, createDcSolver, type DcOptions, type DcSolution, type DcSolver } from '../index.js';
 import { buildCircuit, FALLBACK_DC_OPTIONS, readResistance, readVoltage, testPointsFor } from '../../board/index.js';
 import { deviatedValue } from './deviation.js';
 import { boardDeviations, type PartDeviation } from './part-spreads.js';
@@ -9,9 +9,10 @@ import type { Evaluate } from './worst-case.js';
 /**
  * The board as a function from part deviations to test-point readings, for the tolerance analyses.
  *
- * Each condition's circuit is built once; a sample only rewrites element values, per-part model
- * parameters and op-amp offsets in place, then solves warm-started from the nominal solution of
- * that circuit (always the nominal one, never the previous sample's, so a sample's result does not
+ * Each condition's circuit is built and compiled once, into a solver kept for every sample; a
+ * sample only writes the deviated values (element values, one part's model parameters, op-amp
+ * offsets) into the compiled devices, then solves warm-started from the nominal solution of that
+ * circuit (always the nominal one, never the previous sample's, so a sample's result does not
  * depend on the order samples are drawn in).
  */
 
@@ -27,6 +28,7 @@ export interface BoardOutput {
 interface Setup {
   condition: string;
   circuit: Circuit;
+  solver: DcSolver;
   nominal: DcSolution;
   /** The solver options the nominal solve needed; samples use the same. */
   options: DcOptions;
@@ -67,14 +69,15 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
   for (const condition of conditions) {
     for (const built of buildsFor(board, condition)) {
       const { circuit, partElements } = built;
+      const solver = createDcSolver(circuit);
       const setters = deviations.flatMap((d, index) => {
-        const set = setterFor(circuit, partElements[d.part] ?? [], d);
+        const set = setterFor(circuit, solver, partElements[d.part] ?? [], d);
         return set ? [{ index, set }] : [];
       });
       solves++;
       let solved: { solution: DcSolution; options: DcOptions };
       try {
-        solved = solveNominal(circuit);
+        solved = solveNominal(solver);
       } catch (error) {
         if (!(error instanceof ConvergenceError)) throw error;
         unsolved.push({ condition, testPoints: built.readings.map((r) => r.testPoint), reason: error.message });
@@ -91,7 +94,7 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
         const amp = amps[d.target.amplifier];
         return amp ? [{ index, inverting: amp.nodes[1] }] : [];
       });
-      setups.push({ condition, circuit, nominal, options, setters, offsets, readers });
+      setups.push({ condition, circuit, solver, nominal, options, setters, offsets, readers });
     }
   }
   const solveSetup = (setup: Setup, u: Float64Array, into: Float64Array, at: (output: number) => number) => {
@@ -134,11 +137,11 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
  * fallbacks in turn (as solvePatiently tries them). Samples start from the options that worked, so
  * a circuit that needs a larger GMIN does not pay for a failing default solve on every sample.
  */
-function solveNominal(circuit: Circuit): { solution: DcSolution; options: DcOptions } {
+function solveNominal(solver: DcSolver): { solution: DcSolution; options: DcOptions } {
   let last: unknown;
   for (const options of [{}, ...FALLBACK_DC_OPTIONS]) {
     try {
-      return { solution: solveDC(circuit, options), options };
+      return { solution: solver.solve(options), options };
     } catch (error) {
       if (!(error instanceof ConvergenceError)) throw error;
       last = error;
@@ -173,7 +176,7 @@ function solveAlongPath(setup: Setup, deviations: PartDeviation[], u: Float64Arr
       apply(k / steps);
       counted();
       try {
-        base = solveDC(setup.circuit, { ...setup.options, ...WARM_OPTIONS, initial: offsetSeed(setup, deviations, u, base, (k - 1) / steps, k / steps) });
+        base = setup.solver.solve({ ...setup.options, ...WARM_OPTIONS, initial: offsetSeed(setup, deviations, u, base, (k - 1) / steps, k / steps) });
       } catch (error) {
         if (!(error instanceof ConvergenceError)) throw error;
         reached = false;
@@ -222,57 +225,38 @@ function buildsFor(board: Board, condition: string): Build[] {
       unit: 'V' as const,
       read: (s: DcSolution) => readVoltage(board, tp, netNode, s),
     }));
-    return [{ circuit: clone(circuit), partElements, readings }];
+    return [{ circuit, partElements, readings }];
   }
   return points.map((tp) => {
     const { circuit, partElements, netNode } = buildCircuit(board, condition, { ohmmeter: { testPoint: tp.id } });
     const read = (s: DcSolution) => readResistance(board, tp, netNode, s);
-    return { circuit: clone(circuit), partElements, readings: [{ testPoint: tp.id, node: netNode(tp.net), unit: 'Ω' as const, read }] };
+    return { circuit, partElements, readings: [{ testPoint: tp.id, node: netNode(tp.net), unit: 'Ω' as const, read }] };
   });
-}
-
-/** A private copy: setters rewrite values in place, and the built circuit may be shared or cached. */
-function clone(circuit: Circuit): Circuit {
-  return {
-    ...circuit,
-    elements: circuit.elements.map((e) => ({ ...e, ...('params' in e ? { params: { ...e.params } } : {}) }) as Element),
-    models: Object.fromEntries(Object.entries(circuit.models).map(([k, m]) => [k, { ...m, params: { ...m.params } }])),
-  };
 }
 
 /**
- * How one deviation writes into a circuit: a part's value onto its element(s), a model parameter
- * onto a model of the part's own (each transistor or diode gets a private copy of its model, since
- * two parts of one type differ), an offset onto one amplifier of a package.
+ * How one deviation writes into a compiled circuit: a part's value onto its element(s), a model
+ * parameter onto each of the part's own diodes or transistors (other parts of the same type keep
+ * theirs), an offset onto one amplifier of a package. A model parameter the solver does not read
+ * at DC has no effect on an operating point and gets no setter.
  */
-function setterFor(circuit: Circuit, elementNames: string[], d: PartDeviation): ((value: number) => void) | undefined {
+function setterFor(circuit: Circuit, solver: DcSolver, elementNames: string[], d: PartDeviation): ((value: number) => void) | undefined {
   const elements = elementNames.map((n) => circuit.elements.find((e) => e.name === n)).filter((e): e is Element => e !== undefined);
   const target = d.target;
+  let sets: Array<(value: number) => void>;
   if (target.kind === 'value') {
-    const own = elements.filter((e) => e.kind === 'resistor' || e.kind === 'pot');
-    if (own.length === 0) return undefined;
-    return (value) => {
-      for (const e of own) (e as { value: number }).value = value;
-    };
-  }
-  if (target.kind === 'vos') {
+    sets = elements.filter((e) => e.kind === 'resistor' || e.kind === 'pot').map((e) => solver.valueSetter(e.name, 'value'));
+  } else if (target.kind === 'vos') {
     const amp = elements.filter((e) => e.kind === 'opamp')[target.amplifier];
-    if (!amp || amp.kind !== 'opamp') return undefined;
-    return (value) => {
-      amp.params.vos = value;
-    };
+    sets = amp ? [solver.valueSetter(amp.name, 'vos')] : [];
+  } else {
+    sets = elements
+      .filter((e) => (e.kind === 'diode' || e.kind === 'bjt') && solver.canSet(e.name, target.param))
+      .map((e) => solver.valueSetter(e.name, target.param));
   }
-  const semis = elements.filter((e): e is Extract<Element, { kind: 'diode' | 'bjt' }> => e.kind === 'diode' || e.kind === 'bjt');
-  if (semis.length === 0) return undefined;
-  const models = semis.map((e) => {
-    const base = circuit.models[e.model.toLowerCase()];
-    if (!base) return undefined;
-    const name = `${e.model.toLowerCase()}~${e.name}`;
-    if (!circuit.models[name]) circuit.models[name] = { ...base, name, params: { ...base.params } };
-    e.model = name;
-    return circuit.models[name];
-  });
+  if (sets.length === 0) return undefined;
+  if (sets.length === 1) return sets[0];
   return (value) => {
-    for (const m of models) if (m) m.params[target.param] = value;
+    for (const set of sets) set(value);
   };
 }

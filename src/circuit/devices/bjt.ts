@@ -12,12 +12,12 @@
  * Charge-storage, noise and temperature parameters (BJT_PARAMS.ignoredAtDc) are accepted and have
  * no effect here: the small-signal AC ignores junction and diffusion capacitance.
  */
-import type { Bjt, Circuit } from '../netlist.js';
+import type { Bjt, Circuit, Model } from '../netlist.js';
 import type { Allocator, Device, JunctionRegion, StampContext } from './device.js';
 import type { Stamper } from '../stamper.js';
-import { findModel, readModelParams, type ParamSpec } from '../model-params.js';
+import { findModel, readModelParams, settableParams, withModelParam, type ParamSpec } from '../model-params.js';
 import { criticalVoltage, junction, limitJunction } from '../junction.js';
-import { requireNumber } from '../check-values.js';
+import { badValue, requireNumber } from '../check-values.js';
 import { NOMINAL_TEMPERATURE_C, thermalVoltage } from '../constants.js';
 import { CONDUCTING_CURRENT } from './diode.js';
 
@@ -54,7 +54,10 @@ export interface GpPoint {
 
 export function gpParams(circuit: Circuit, el: Bjt, warn: (m: string) => void): GpParams {
   const model = findModel(circuit, el.name, el.model, ['NPN', 'PNP']);
-  const temperatureC = circuit.temperatureC ?? NOMINAL_TEMPERATURE_C;
+  return gpParamsOfModel(model, el, circuit.temperatureC ?? NOMINAL_TEMPERATURE_C, warn);
+}
+
+function gpParamsOfModel(model: Model, el: Bjt, temperatureC: number, warn: (m: string) => void): GpParams {
   const p = readModelParams(model, BJT_PARAMS, temperatureC, warn);
   const area = el.area === undefined ? 1 : requireNumber(el.name, 'area', el.area, 0, true);
   const who = `${el.name} (model ${model.name})`;
@@ -130,17 +133,18 @@ export function gummelPoon(m: GpParams, vbe: number, vbc: number, vt: number, gm
 }
 
 export function createBjt(el: Bjt, alloc: Allocator, circuit: Circuit): Device {
-  const m = gpParams(circuit, el, alloc.warn);
+  let model = findModel(circuit, el.name, el.model, ['NPN', 'PNP']);
   const temperatureC = circuit.temperatureC ?? NOMINAL_TEMPERATURE_C;
-  const vcrit = criticalVoltage(m.is, thermalVoltage(temperatureC));
+  let m = gpParamsOfModel(model, el, temperatureC, alloc.warn);
+  let vcrit = criticalVoltage(m.is, thermalVoltage(temperatureC));
   const c = alloc.node(el.nodes[0]);
   const b = alloc.node(el.nodes[1]);
   const e = alloc.node(el.nodes[2]);
   const ci = m.rc > 0 ? alloc.internal(el.name, 'collector') : c;
   const bi = m.rbMin + m.rbExtra > 0 ? alloc.internal(el.name, 'base') : b;
   const ei = m.re > 0 ? alloc.internal(el.name, 'emitter') : e;
-  const gc = m.rc > 0 ? 1 / m.rc : 0;
-  const ge = m.re > 0 ? 1 / m.re : 0;
+  let gc = m.rc > 0 ? 1 / m.rc : 0;
+  let ge = m.re > 0 ? 1 / m.re : 0;
   const t = m.type;
   const pt: GpPoint = { ic: 0, ib: 0, dic_dvbe: 0, dic_dvbc: 0, dib_dvbe: 0, dib_dvbc: 0, qb: 1, ibeIdeal: 0, ibcIdeal: 0 };
   const j = new Float64Array(2);
@@ -157,6 +161,20 @@ export function createBjt(el: Bjt, alloc: Allocator, circuit: Circuit): Device {
   return {
     name: el.name,
     element: el,
+    settable: settableParams(BJT_PARAMS),
+    set(field: string, value: number): void {
+      const next = withModelParam(model, BJT_PARAMS, el.name, field, value);
+      const p = gpParamsOfModel(next, el, temperatureC, () => {});
+      // Internal nodes exist only for nonzero RC, RB and RE; the compiled layout cannot change.
+      if (p.rc > 0 !== m.rc > 0 || p.re > 0 !== m.re > 0 || p.rbMin + p.rbExtra > 0 !== m.rbMin + m.rbExtra > 0) {
+        throw badValue(el.name, field, value, 'a value keeping each of RB, RE and RC zero or nonzero as compiled');
+      }
+      model = next;
+      m = p;
+      vcrit = criticalVoltage(m.is, thermalVoltage(temperatureC));
+      gc = m.rc > 0 ? 1 / m.rc : 0;
+      ge = m.re > 0 ? 1 / m.re : 0;
+    },
     seed(x: Float64Array | null): void {
       if (x) {
         vbeOld = t * (at(x, bi) - at(x, ei));

@@ -43,6 +43,14 @@ export interface Device {
   region?(x: Float64Array, ctx: StampContext): JunctionRegion;
   /** Reactive parts and small-signal excitation at angular frequency ω (the real Jacobian comes from stamp()). */
   stampAc?(s: ComplexStamper, omega: number): void;
+  /** Names `set` accepts: element fields ("value", "position", "dc", "vos"…) or model parameters ("IS", "BF"…). */
+  readonly settable?: readonly string[];
+  /**
+   * Changes one value of the compiled device in place, checked as at compile time. The matrix
+   * pattern never changes, so a solver keeps its LU plans; a bad value throws UserInputError and
+   * leaves the device as it was.
+   */
+  set?(field: string, value: number): void;
 }
 
 /** How a device asks for unknowns while it is being compiled. */

@@ -5,12 +5,12 @@
  * so that the current at v = −BV is IBV. RS gets an internal node. GMIN sits across the junction.
  * Junction capacitance (CJO…) and transit time do not affect DC and are ignored here.
  */
-import type { Circuit, Diode } from '../netlist.js';
+import type { Circuit, Diode, Model } from '../netlist.js';
 import type { Allocator, Device, JunctionRegion, StampContext } from './device.js';
 import type { Stamper } from '../stamper.js';
-import { findModel, readModelParams, type ParamSpec } from '../model-params.js';
+import { findModel, readModelParams, settableParams, withModelParam, type ParamSpec } from '../model-params.js';
 import { criticalVoltage, junction, limitJunction, safeExp } from '../junction.js';
-import { requireNumber } from '../check-values.js';
+import { badValue, requireNumber } from '../check-values.js';
 import { NOMINAL_TEMPERATURE_C, thermalVoltage } from '../constants.js';
 
 export const DIODE_PARAMS: ParamSpec = {
@@ -58,7 +58,10 @@ export function diodeCurrent(v: number, law: DiodeLaw, out: Float64Array): void 
 
 export function diodeLaw(circuit: Circuit, el: Diode, warn: (m: string) => void): DiodeLaw {
   const model = findModel(circuit, el.name, el.model, ['D']);
-  const temperatureC = circuit.temperatureC ?? NOMINAL_TEMPERATURE_C;
+  return lawOfModel(model, el, circuit.temperatureC ?? NOMINAL_TEMPERATURE_C, warn);
+}
+
+function lawOfModel(model: Model, el: Diode, temperatureC: number, warn: (m: string) => void): DiodeLaw {
   const p = readModelParams(model, DIODE_PARAMS, temperatureC, warn);
   const area = el.area === undefined ? 1 : requireNumber(el.name, 'area', el.area, 0, true);
   const nvt = p.N * thermalVoltage(temperatureC);
@@ -77,20 +80,33 @@ export function diodeLaw(circuit: Circuit, el: Diode, warn: (m: string) => void)
 }
 
 export function createDiode(el: Diode, alloc: Allocator, circuit: Circuit): Device {
-  const law = diodeLaw(circuit, el, alloc.warn);
+  let model = findModel(circuit, el.name, el.model, ['D']);
+  const temperatureC = circuit.temperatureC ?? NOMINAL_TEMPERATURE_C;
+  let law = lawOfModel(model, el, temperatureC, alloc.warn);
   const anode = alloc.node(el.nodes[0]);
   const cathode = alloc.node(el.nodes[1]);
   const inner = law.rs > 0 ? alloc.internal(el.name, 'anode') : anode;
-  const grs = law.rs > 0 ? 1 / law.rs : 0;
+  let grs = law.rs > 0 ? 1 / law.rs : 0;
   const scratch = new Float64Array(2);
   let vOld = 0;
   let pending: number | null = null;
   const at = (x: Float64Array, i: number) => (i < 0 ? 0 : x[i]);
-  const breakdownLimitBelow = Math.min(0, -law.bv + 10 * law.nvt);
+  let breakdownLimitBelow = Math.min(0, -law.bv + 10 * law.nvt);
 
   return {
     name: el.name,
     element: el,
+    settable: settableParams(DIODE_PARAMS),
+    set(field: string, value: number): void {
+      const next = withModelParam(model, DIODE_PARAMS, el.name, field, value);
+      const nextLaw = lawOfModel(next, el, temperatureC, () => {});
+      // RS = 0 has no internal node; the compiled layout cannot gain or lose one.
+      if (nextLaw.rs > 0 !== law.rs > 0) throw badValue(el.name, field, value, `a value keeping RS ${law.rs > 0 ? '> 0' : '= 0'} on this compiled circuit`);
+      model = next;
+      law = nextLaw;
+      grs = law.rs > 0 ? 1 / law.rs : 0;
+      breakdownLimitBelow = Math.min(0, -law.bv + 10 * law.nvt);
+    },
     seed(x: Float64Array | null): void {
       if (x) {
         vOld = at(x, inner) - at(x, cathode);

@@ -19,7 +19,7 @@
 import type { OpAmp } from '../netlist.js';
 import type { Allocator, Device, StampContext } from './device.js';
 import type { Stamper } from '../stamper.js';
-import { requireNumber } from '../check-values.js';
+import { badValue, requireNumber } from '../check-values.js';
 
 /** δ in the smooth span: how sharply the output window closes as the supplies collapse, volts. */
 export const SPAN_SMOOTHING = 0.1;
@@ -41,6 +41,9 @@ interface OpAmpLaw {
   iq: number;
   vos: number;
 }
+
+/** The law's values, each of which can be changed in place on a compiled op-amp. */
+const LAW_FIELDS: readonly string[] = ['gain', 'rout', 'rin', 'headroom', 'iq', 'vos'];
 
 function opampLaw(el: OpAmp): OpAmpLaw {
   const p = el.params;
@@ -86,10 +89,11 @@ export function opampOutput(law: OpAmpLaw, vinp: number, vinn: number, vvp: numb
 }
 
 export function createOpAmp(el: OpAmp, alloc: Allocator): Device {
-  const law = opampLaw(el);
+  let params: OpAmp['params'] = el.params;
+  let law = opampLaw(el);
   const [inp, inn, out, vp, vn] = el.nodes.map((n) => alloc.node(n));
-  const gout = 1 / law.rout;
-  const gin = law.rin === Infinity ? 0 : 1 / law.rin;
+  let gout = 1 / law.rout;
+  let gin = law.rin === Infinity ? 0 : 1 / law.rin;
   const pt: OpAmpPoint = { vo: 0, dInp: 0, dInn: 0, dVp: 0, dVn: 0 };
   const at = (x: Float64Array, i: number) => (i < 0 ? 0 : x[i]);
   let uOld = 0;
@@ -107,6 +111,15 @@ export function createOpAmp(el: OpAmp, alloc: Allocator): Device {
   return {
     name: el.name,
     element: el,
+    settable: LAW_FIELDS,
+    set(field: string, value: number): void {
+      if (!LAW_FIELDS.includes(field)) throw badValue(el.name, 'field', field, LAW_FIELDS.map((f) => `"${f}"`).join(', '));
+      const next = { ...params, [field]: value };
+      law = opampLaw({ ...el, params: next });
+      params = next;
+      gout = 1 / law.rout;
+      gin = law.rin === Infinity ? 0 : 1 / law.rin;
+    },
     seed(x: Float64Array | null): void {
       uOld = x ? drive(at(x, inp), at(x, inn), at(x, vp), at(x, vn))[0] : 0;
     },

@@ -38,13 +38,23 @@ export function createPotentiometer(el: Potentiometer, alloc: Allocator): Device
   const a = alloc.node(el.nodes[0]);
   const w = alloc.node(el.nodes[1]);
   const b = alloc.node(el.nodes[2]);
+  let { value, position } = el;
   const [raw, rwb] = potResistances(el);
-  const gaw = 1 / raw;
-  const gwb = 1 / rwb;
+  let gaw = 1 / raw;
+  let gwb = 1 / rwb;
   const v = (x: Float64Array, i: number) => (i < 0 ? 0 : x[i]);
   return {
     name: el.name,
     element: el,
+    settable: ['value', 'position'],
+    set(field: string, to: number): void {
+      if (field !== 'value' && field !== 'position') throw badValue(el.name, 'field', field, '"value" or "position"');
+      const next = { ...el, value, position, [field]: to };
+      const [ra, rb] = potResistances(next);
+      ({ value, position } = next);
+      gaw = 1 / ra;
+      gwb = 1 / rb;
+    },
     stamp(s: Stamper): void {
       s.conductance(a, w, gaw);
       s.conductance(w, b, gwb);

@@ -17,10 +17,15 @@ export function resistorConductance(element: string, ohms: number, field = 'valu
 export function createResistor(el: Resistor, alloc: Allocator): Device {
   const p = alloc.node(el.nodes[0]);
   const q = alloc.node(el.nodes[1]);
-  const g = resistorConductance(el.name, el.value);
+  let g = resistorConductance(el.name, el.value);
   return {
     name: el.name,
     element: el,
+    settable: ['value'],
+    set(field: string, value: number): void {
+      if (field !== 'value') throw badValue(el.name, 'field', field, '"value"');
+      g = resistorConductance(el.name, value);
+    },
     stamp(s: Stamper): void {
       s.conductance(p, q, g);
     },

@@ -9,7 +9,13 @@ import type { AcSpec, CurrentSource, VoltageSource } from '../netlist.js';
 import type { Allocator, Device, StampContext } from './device.js';
 import type { Stamper } from '../stamper.js';
 import type { ComplexStamper } from '../complex-stamper.js';
-import { requireNumber } from '../check-values.js';
+import { badValue, requireNumber } from '../check-values.js';
+
+/** The one value of an independent source that can change in place: its DC value. */
+function checkedDc(name: string, field: string, value: number): number {
+  if (field !== 'dc') throw badValue(name, 'field', field, '"dc"');
+  return requireNumber(name, 'dc', value);
+}
 
 function phasor(name: string, ac: AcSpec | undefined): [number, number] {
   if (!ac) return [0, 0];
@@ -22,11 +28,15 @@ export function createVoltageSource(el: VoltageSource, alloc: Allocator): Device
   const p = alloc.node(el.nodes[0]);
   const q = alloc.node(el.nodes[1]);
   const br = alloc.branch(el.name);
-  const dc = requireNumber(el.name, 'dc', el.dc);
+  let dc = requireNumber(el.name, 'dc', el.dc);
   const [acRe, acIm] = phasor(el.name, el.ac);
   return {
     name: el.name,
     element: el,
+    settable: ['dc'],
+    set(field: string, value: number): void {
+      dc = checkedDc(el.name, field, value);
+    },
     stamp(s: Stamper, ctx: StampContext): void {
       s.branch(p, q, br);
       s.rhs(br, dc * ctx.sourceScale);
@@ -43,11 +53,15 @@ export function createVoltageSource(el: VoltageSource, alloc: Allocator): Device
 export function createCurrentSource(el: CurrentSource, alloc: Allocator): Device {
   const p = alloc.node(el.nodes[0]);
   const q = alloc.node(el.nodes[1]);
-  const dc = requireNumber(el.name, 'dc', el.dc);
+  let dc = requireNumber(el.name, 'dc', el.dc);
   const [acRe, acIm] = phasor(el.name, el.ac);
   return {
     name: el.name,
     element: el,
+    settable: ['dc'],
+    set(field: string, value: number): void {
+      dc = checkedDc(el.name, field, value);
+    },
     stamp(s: Stamper, ctx: StampContext): void {
       s.current(p, q, dc * ctx.sourceScale);
     },
