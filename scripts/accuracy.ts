@@ -116,6 +116,8 @@ function simulate(faulty: Board, dict: BuiltDictionary, rng: ReturnType<typeof c
     if (error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError) return undefined;
     throw error;
   }
+  // A reading lost to an unsolved circuit cannot be taken; the trial is not run on a partial board.
+  if (y.some(Number.isNaN)) return undefined;
   const truth = new Map<string, number>();
   ev.outputs.forEach((o, i) => {
     const value = y[i];

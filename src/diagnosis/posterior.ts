@@ -17,6 +17,10 @@ export const DEFAULT_OUTLIER = 0.01;
 export function locateReadings(dict: FaultDictionary, readings: Reading[]): number[] {
   const index = new Map(dict.observables.map((o, i) => [observableKey(o.testPoint, o.condition), i]));
   return readings.map((r, k) => {
+    // Infinity is a real reading (OL on the ohms range); NaN is no reading at all.
+    if (typeof r.value !== 'number' || Number.isNaN(r.value)) {
+      throw new UserInputError({ code: 'rank.bad-reading', path: `readings[${k}].value`, message: `${r.testPoint}: the reading is not a number`, accepted: 'a meter reading, e.g. 4.2 (volts) or 4700 (ohms)' });
+    }
     const i = index.get(observableKey(r.testPoint, r.condition));
     if (i === undefined) {
       const here = dict.observables.filter((o) => o.condition === r.condition).map((o) => o.testPoint);

@@ -91,3 +91,10 @@ describe('entropy', () => {
     expect(p[1]).toBeCloseTo(0.75, 12);
   });
 });
+
+describe('bad readings', () => {
+  it('a reading that is not a number is refused by name, not ranked', () => {
+    const dict = smallDictionary();
+    expect(() => posterior(dict, [{ testPoint: 'TP1', condition: 'quiescent', value: NaN }])).toThrow(/TP1: the reading is not a number/);
+  });
+});
