@@ -1,6 +1,6 @@
 import type { Board } from '../../schemas/board.js';
 import { GROUND, type Circuit, type Element } from '../netlist.js';
-import { ConvergenceError, createDcSolver, type DcOptions, type DcSolution, type DcSolver } from '../index.js';
+import { ConvergenceError, createDcSolver, type DcOptions, type DcSolution, type DcSolver, type LeanDcOptions } from '../index.js';
 import { buildCircuit, FALLBACK_DC_OPTIONS, readResistance, readVoltage, testPointsFor } from '../../board/index.js';
 import { deviatedValue } from './deviation.js';
 import { boardDeviations, type PartDeviation } from './part-spreads.js';
@@ -13,7 +13,8 @@ import type { Evaluate } from './worst-case.js';
  * sample only writes the deviated values (element values, one part's model parameters, op-amp
  * offsets) into the compiled devices, then solves warm-started from the nominal solution of that
  * circuit (always the nominal one, never the previous sample's, so a sample's result does not
- * depend on the order samples are drawn in).
+ * depend on the order samples are drawn in). Samples use the solver's lean solve: the same
+ * convergence test, but only the node voltages the readings need are read out of it.
  */
 
 export interface BoardOutput {
@@ -29,15 +30,26 @@ interface Setup {
   condition: string;
   circuit: Circuit;
   solver: DcSolver;
-  nominal: DcSolution;
-  /** The solver options the nominal solve needed; samples use the same. */
-  options: DcOptions;
+  /** The nominal unknowns, every sample's starting point. */
+  nominal: Float64Array;
+  /** The solver options the nominal solve needed (samples use the same), with `start` = `seed`. */
+  options: LeanDcOptions & { start: Float64Array };
+  /** Where a continuation step starts from, and the warm start handed to the solver. */
+  base: Float64Array;
+  seed: Float64Array;
   /** One setter per deviation that touches this circuit. */
   setters: Array<{ index: number; set: (value: number) => void }>;
-  /** Offset deviations and the − input node of the amplifier each one moves. */
-  offsets: Array<{ index: number; inverting: string }>;
+  /** Offset deviations and the unknown index of the − input of the amplifier each one moves. */
+  offsets: Array<{ index: number; inverting: number }>;
   /** Output index → reading from a solution. */
   readers: Array<{ output: number; read: (s: DcSolution) => number }>;
+  /**
+   * What the readers see: node voltages refreshed from the solver after each sample's solve. The
+   * readers take only `nodes`; the other fields stay empty rather than being built per sample.
+   */
+  view: DcSolution;
+  nodeNames: string[];
+  nodeUnknowns: Int32Array;
 }
 
 export interface ConditionEvaluator {
@@ -83,7 +95,8 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
         unsolved.push({ condition, testPoints: built.readings.map((r) => r.testPoint), reason: error.message });
         continue;
       }
-      const { solution: nominal, options } = solved;
+      const { solution, options } = solved;
+      const nominal = solver.x.slice();
       const readers = built.readings.map((r) => {
         outputs.push({ testPoint: r.testPoint, condition, node: r.node, unit: r.unit });
         return { output: outputs.length - 1, read: r.read };
@@ -92,14 +105,24 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
         if (d.target.kind !== 'vos') return [];
         const amps = (partElements[d.part] ?? []).map((n) => circuit.elements.find((e) => e.name === n)).filter((e) => e?.kind === 'opamp');
         const amp = amps[d.target.amplifier];
-        return amp ? [{ index, inverting: amp.nodes[1] }] : [];
+        const inverting = amp && amp.nodes[1] !== GROUND ? solver.compiled.nodeIndex.get(amp.nodes[1]) : undefined;
+        return inverting === undefined ? [] : [{ index, inverting }];
       });
-      setups.push({ condition, circuit, solver, nominal, options, setters, offsets, readers });
+      const seed = new Float64Array(nominal.length);
+      const view: DcSolution = { ...solution, nodes: { ...solution.nodes }, sourceCurrents: {}, elements: {}, junctions: {}, warnings: [], unknowns: undefined };
+      setups.push({
+        condition, circuit, solver, nominal, seed, base: new Float64Array(nominal.length),
+        options: { ...options, ...WARM_OPTIONS, start: seed }, setters, offsets, readers, view,
+        nodeNames: [...solver.compiled.nodeIndex.keys()], nodeUnknowns: Int32Array.from(solver.compiled.nodeIndex.values()),
+      });
     }
   }
   const solveSetup = (setup: Setup, u: Float64Array, into: Float64Array, at: (output: number) => number) => {
-    const s = solveAlongPath(setup, deviations, u, () => solves++);
-    for (const r of setup.readers) into[at(r.output)] = r.read(s);
+    solveAlongPath(setup, deviations, u, () => solves++);
+    const { view, nodeNames, nodeUnknowns } = setup;
+    const x = setup.solver.x;
+    for (let k = 0; k < nodeNames.length; k++) view.nodes[nodeNames[k]] = x[nodeUnknowns[k]];
+    for (const r of setup.readers) into[at(r.output)] = r.read(view);
   };
   // One board across all conditions: a circuit that cannot be solved leaves its readings NaN
   // rather than losing the whole sample (Monte Carlo skips NaN per reading).
@@ -165,24 +188,28 @@ function solveNominal(solver: DcSolver): { solution: DcSolution; options: DcOpti
 const STEP_COUNTS = [1, 4];
 const WARM_OPTIONS: DcOptions = { skip: ['source'] };
 
-function solveAlongPath(setup: Setup, deviations: PartDeviation[], u: Float64Array, counted: () => void): DcSolution {
+/** Leaves the sample's operating point in setup.solver.x, or throws ConvergenceError. */
+function solveAlongPath(setup: Setup, deviations: PartDeviation[], u: Float64Array, counted: () => void): void {
   const apply = (t: number) => {
     for (const { index, set } of setup.setters) set(deviatedValue(deviations[index], t * u[index]));
   };
+  const { solver, base } = setup;
   for (const steps of STEP_COUNTS) {
-    let base = setup.nominal;
+    base.set(setup.nominal);
     let reached = true;
     for (let k = 1; k <= steps && reached; k++) {
       apply(k / steps);
       counted();
+      offsetSeed(setup, deviations, u, (k - 1) / steps, k / steps);
       try {
-        base = setup.solver.solve({ ...setup.options, ...WARM_OPTIONS, initial: offsetSeed(setup, deviations, u, base, (k - 1) / steps, k / steps) });
+        solver.solveLean(setup.options);
+        if (k < steps) base.set(solver.x);
       } catch (error) {
         if (!(error instanceof ConvergenceError)) throw error;
         reached = false;
       }
     }
-    if (reached) return base;
+    if (reached) return;
   }
   throw new ConvergenceError([], 'continuation', `no operating point reached along ${STEP_COUNTS.join(', ')} steps from nominal`);
 }
@@ -194,17 +221,13 @@ function solveAlongPath(setup: Setup, deviations: PartDeviation[], u: Float64Arr
  * Newton's linearisation is flat and the iteration cycles; moving the − input with the offset
  * starts every amplifier at the differential input it had, inside its linear region.
  */
-function offsetSeed(setup: Setup, deviations: PartDeviation[], u: Float64Array, base: DcSolution, t0: number, t1: number): DcSolution {
-  let seed: DcSolution | undefined;
+function offsetSeed(setup: Setup, deviations: PartDeviation[], u: Float64Array, t0: number, t1: number): void {
+  const { seed } = setup;
+  seed.set(setup.base);
   for (const { index, inverting } of setup.offsets) {
     const d = deviations[index];
-    const shift = deviatedValue(d, t1 * u[index]) - deviatedValue(d, t0 * u[index]);
-    if (shift === 0 || inverting === GROUND) continue;
-    seed ??= { ...base, nodes: { ...base.nodes }, unknowns: base.unknowns && { ...base.unknowns } };
-    seed.nodes[inverting] = (seed.nodes[inverting] ?? 0) + shift;
-    if (seed.unknowns && inverting in seed.unknowns) seed.unknowns[inverting] += shift;
+    seed[inverting] += deviatedValue(d, t1 * u[index]) - deviatedValue(d, t0 * u[index]);
   }
-  return seed ?? base;
 }
 
 interface Build {
