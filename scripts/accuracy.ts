@@ -124,6 +124,8 @@ function simulate(faulty: Board, dict: BuiltDictionary, rng: ReturnType<typeof c
     const error = Number.isFinite(value) ? rng.symmetric() * meterAccuracy(value, o.unit, DEFAULT_METER) : 0;
     truth.set(`${o.condition}:${o.testPoint}`, value + error);
   });
+  // Every reading the tool may ask for must exist on the simulated board.
+  if (dict.observables.some((o) => !truth.has(`${o.condition}:${o.testPoint}`))) return undefined;
   return truth;
 }
 
