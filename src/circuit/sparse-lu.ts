@@ -69,6 +69,8 @@ export class SparseLu {
   private readonly positions: Int32Array;
   private readonly w: Float64Array;
   private readonly z: Float64Array;
+  /** Planning scratch: the pattern plus fill-in found so far. */
+  private readonly mark: Uint8Array;
   private readonly plans: LuPlan[];
   private current: LuPlan | null = null;
   /** How many plans this instance made (for tests and benchmarks). */
@@ -86,6 +88,7 @@ export class SparseLu {
     }
     this.w = new Float64Array(n * n);
     this.z = new Float64Array(n);
+    this.mark = new Uint8Array(n * n);
     this.plans = sharedPlans(n, this.positions);
   }
 
@@ -155,7 +158,8 @@ export class SparseLu {
     const n = this.n;
     const w = this.w;
     this.load(a, new Int32Array(0));
-    const s = this.pattern.slice();
+    const s = this.mark;
+    s.set(this.pattern);
     const rowCols: number[][] = [];
     const colRows: number[][] = [];
     for (let i = 0; i < n; i++) {
@@ -184,6 +188,48 @@ export class SparseLu {
     const uList: number[] = [];
     const fill: number[] = [];
 
+    // Each column's own best candidate (fewest updates, then largest pivot relative to the column,
+    // then first in the column's list), kept until an elimination step touches the column. The
+    // overall choice is the same as comparing every candidate in column order.
+    const colValid = new Uint8Array(n);
+    const colBestR = new Int32Array(n);
+    const colBestCost = new Float64Array(n);
+    const colBestRatio = new Float64Array(n);
+    const scoreColumn = (c: number) => {
+      const rows = colRows[c];
+      let colMax = 0;
+      for (let t = 0; t < rows.length; t++) {
+        const r = rows[t];
+        if (!rowActive[r]) continue;
+        const v = Math.abs(w[r * n + c]);
+        if (v > colMax) colMax = v;
+      }
+      let best = -1;
+      let bestCost = Infinity;
+      let bestRatio = 0;
+      if (colMax > ABSOLUTE_PIVOT) {
+        const colCost = colCnt[c] - 1;
+        for (let t = 0; t < rows.length; t++) {
+          const r = rows[t];
+          if (!rowActive[r]) continue;
+          const cost = (rowCnt[r] - 1) * colCost;
+          if (cost > bestCost) continue;
+          const v = Math.abs(w[r * n + c]);
+          if (v < PIVOT_THRESHOLD * colMax || !(v > ABSOLUTE_PIVOT)) continue;
+          const ratio = v / colMax;
+          if (cost < bestCost || (cost === bestCost && ratio > bestRatio)) {
+            bestCost = cost;
+            bestRatio = ratio;
+            best = r;
+          }
+        }
+      }
+      colBestR[c] = best;
+      colBestCost[c] = bestCost;
+      colBestRatio[c] = bestRatio;
+      colValid[c] = 1;
+    };
+
     for (let k = 0; k < n; k++) {
       let bestR = -1;
       let bestC = -1;
@@ -191,21 +237,11 @@ export class SparseLu {
       let bestRatio = 0;
       for (let c = 0; c < n; c++) {
         if (!colActive[c]) continue;
-        // A column's cost is at least (its count − 1)·0; skip columns that cannot beat the best.
-        const rows = colRows[c];
-        let colMax = 0;
-        for (const r of rows) {
-          if (!rowActive[r]) continue;
-          const v = Math.abs(w[r * n + c]);
-          if (v > colMax) colMax = v;
-        }
-        if (!(colMax > ABSOLUTE_PIVOT)) continue;
-        for (const r of rows) {
-          if (!rowActive[r]) continue;
-          const v = Math.abs(w[r * n + c]);
-          if (v < PIVOT_THRESHOLD * colMax || !(v > ABSOLUTE_PIVOT)) continue;
-          const cost = (rowCnt[r] - 1) * (colCnt[c] - 1);
-          const ratio = v / colMax;
+        if (!colValid[c]) scoreColumn(c);
+        const r = colBestR[c];
+        if (r >= 0) {
+          const cost = colBestCost[c];
+          const ratio = colBestRatio[c];
           if (cost < bestCost || (cost === bestCost && ratio > bestRatio)) {
             bestCost = cost;
             bestRatio = ratio;
@@ -255,6 +291,10 @@ export class SparseLu {
           w[k2] -= f * w[r * n + cc];
         }
       }
+      // Rescore what this step changed: the updated columns (values, counts, the pivot row gone)
+      // and every column holding an updated row (that row's count changed).
+      for (const cc of uColsK) colValid[cc] = 0;
+      for (const rr of lRowsK) for (const cc of rowCols[rr]) colValid[cc] = 0;
     }
     lStart[n] = lList.length;
     uStart[n] = uList.length;
