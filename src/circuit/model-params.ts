@@ -86,11 +86,10 @@ export function settableParams(spec: ParamSpec): string[] {
 }
 
 /**
- * A copy of `model` with one parameter replaced (under its canonical name, dropping any alias
- * spelling of it), for changing a compiled device's model in place. Only parameters the device
- * reads at DC are accepted.
+ * A device's resolved parameters (readModelParams' result) with one replaced, checked as a card's
+ * value would be: the name, in any case or alias spelling, must be one the device reads at DC.
  */
-export function withModelParam(model: Model, spec: ParamSpec, element: string, name: string, value: number): Model {
+export function withParam(params: Record<string, number>, spec: ParamSpec, element: string, name: string, value: number): Record<string, number> {
   const upper = name.toUpperCase();
   const canonical = spec.aliases?.[upper] ?? upper;
   if (!(canonical in spec.defaults)) {
@@ -101,11 +100,13 @@ export function withModelParam(model: Model, spec: ParamSpec, element: string, n
       accepted: settableParams(spec).join(', '),
     });
   }
-  const params: Record<string, number> = {};
-  for (const [raw, v] of Object.entries(model.params)) {
-    const u = raw.toUpperCase();
-    if ((spec.aliases?.[u] ?? u) !== canonical) params[raw] = v;
+  if (typeof value !== 'number' || !Number.isFinite(value)) {
+    throw new UserInputError({
+      code: 'circuit.bad-model-param',
+      path: `elements.${element}.${name}`,
+      message: `${canonical} of ${element} is ${String(value)}`,
+      accepted: 'a finite number',
+    });
   }
-  params[canonical] = value;
-  return { ...model, params };
+  return { ...params, [canonical]: value };
 }

@@ -15,7 +15,7 @@
 import type { Bjt, Circuit, Model } from '../netlist.js';
 import type { Allocator, Device, JunctionRegion, StampContext } from './device.js';
 import type { Stamper } from '../stamper.js';
-import { findModel, readModelParams, settableParams, withModelParam, type ParamSpec } from '../model-params.js';
+import { findModel, readModelParams, settableParams, withParam, type ParamSpec } from '../model-params.js';
 import { criticalVoltage, junction, limitJunction } from '../junction.js';
 import { badValue, requireNumber } from '../check-values.js';
 import { NOMINAL_TEMPERATURE_C, thermalVoltage } from '../constants.js';
@@ -58,7 +58,10 @@ export function gpParams(circuit: Circuit, el: Bjt, warn: (m: string) => void): 
 }
 
 function gpParamsOfModel(model: Model, el: Bjt, temperatureC: number, warn: (m: string) => void): GpParams {
-  const p = readModelParams(model, BJT_PARAMS, temperatureC, warn);
+  return gpParamsOf(readModelParams(model, BJT_PARAMS, temperatureC, warn), model, el);
+}
+
+function gpParamsOf(p: Record<string, number>, model: Model, el: Bjt): GpParams {
   const area = el.area === undefined ? 1 : requireNumber(el.name, 'area', el.area, 0, true);
   const who = `${el.name} (model ${model.name})`;
   for (const k of ['IS', 'BF', 'BR', 'NF', 'NR', 'NE', 'NC']) requireNumber(who, k, p[k], 0, true);
@@ -133,9 +136,10 @@ export function gummelPoon(m: GpParams, vbe: number, vbc: number, vt: number, gm
 }
 
 export function createBjt(el: Bjt, alloc: Allocator, circuit: Circuit): Device {
-  let model = findModel(circuit, el.name, el.model, ['NPN', 'PNP']);
+  const model = findModel(circuit, el.name, el.model, ['NPN', 'PNP']);
   const temperatureC = circuit.temperatureC ?? NOMINAL_TEMPERATURE_C;
-  let m = gpParamsOfModel(model, el, temperatureC, alloc.warn);
+  let params = readModelParams(model, BJT_PARAMS, temperatureC, alloc.warn);
+  let m = gpParamsOf(params, model, el);
   let vcrit = criticalVoltage(m.is, thermalVoltage(temperatureC));
   const c = alloc.node(el.nodes[0]);
   const b = alloc.node(el.nodes[1]);
@@ -163,13 +167,13 @@ export function createBjt(el: Bjt, alloc: Allocator, circuit: Circuit): Device {
     element: el,
     settable: settableParams(BJT_PARAMS),
     set(field: string, value: number): void {
-      const next = withModelParam(model, BJT_PARAMS, el.name, field, value);
-      const p = gpParamsOfModel(next, el, temperatureC, () => {});
+      const next = withParam(params, BJT_PARAMS, el.name, field, value);
+      const p = gpParamsOf(next, model, el);
       // Internal nodes exist only for nonzero RC, RB and RE; the compiled layout cannot change.
       if (p.rc > 0 !== m.rc > 0 || p.re > 0 !== m.re > 0 || p.rbMin + p.rbExtra > 0 !== m.rbMin + m.rbExtra > 0) {
         throw badValue(el.name, field, value, 'a value keeping each of RB, RE and RC zero or nonzero as compiled');
       }
-      model = next;
+      params = next;
       m = p;
       vcrit = criticalVoltage(m.is, thermalVoltage(temperatureC));
       gc = m.rc > 0 ? 1 / m.rc : 0;

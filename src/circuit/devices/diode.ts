@@ -8,7 +8,7 @@
 import type { Circuit, Diode, Model } from '../netlist.js';
 import type { Allocator, Device, JunctionRegion, StampContext } from './device.js';
 import type { Stamper } from '../stamper.js';
-import { findModel, readModelParams, settableParams, withModelParam, type ParamSpec } from '../model-params.js';
+import { findModel, readModelParams, settableParams, withParam, type ParamSpec } from '../model-params.js';
 import { criticalVoltage, junction, limitJunction, safeExp } from '../junction.js';
 import { badValue, requireNumber } from '../check-values.js';
 import { NOMINAL_TEMPERATURE_C, thermalVoltage } from '../constants.js';
@@ -62,13 +62,16 @@ export function diodeLaw(circuit: Circuit, el: Diode, warn: (m: string) => void)
 }
 
 function lawOfModel(model: Model, el: Diode, temperatureC: number, warn: (m: string) => void): DiodeLaw {
-  const p = readModelParams(model, DIODE_PARAMS, temperatureC, warn);
+  return lawOfParams(readModelParams(model, DIODE_PARAMS, temperatureC, warn), model.name, el, temperatureC);
+}
+
+function lawOfParams(p: Record<string, number>, modelName: string, el: Diode, temperatureC: number): DiodeLaw {
   const area = el.area === undefined ? 1 : requireNumber(el.name, 'area', el.area, 0, true);
   const nvt = p.N * thermalVoltage(temperatureC);
   const is = p.IS * area;
   if (!(is > 0) || !(nvt > 0)) {
-    requireNumber(`${el.name} (model ${model.name})`, 'IS', p.IS, 0, true);
-    requireNumber(`${el.name} (model ${model.name})`, 'N', p.N, 0, true);
+    requireNumber(`${el.name} (model ${modelName})`, 'IS', p.IS, 0, true);
+    requireNumber(`${el.name} (model ${modelName})`, 'N', p.N, 0, true);
   }
   return {
     is,
@@ -80,9 +83,10 @@ function lawOfModel(model: Model, el: Diode, temperatureC: number, warn: (m: str
 }
 
 export function createDiode(el: Diode, alloc: Allocator, circuit: Circuit): Device {
-  let model = findModel(circuit, el.name, el.model, ['D']);
+  const model = findModel(circuit, el.name, el.model, ['D']);
   const temperatureC = circuit.temperatureC ?? NOMINAL_TEMPERATURE_C;
-  let law = lawOfModel(model, el, temperatureC, alloc.warn);
+  let params = readModelParams(model, DIODE_PARAMS, temperatureC, alloc.warn);
+  let law = lawOfParams(params, model.name, el, temperatureC);
   const anode = alloc.node(el.nodes[0]);
   const cathode = alloc.node(el.nodes[1]);
   const inner = law.rs > 0 ? alloc.internal(el.name, 'anode') : anode;
@@ -98,11 +102,11 @@ export function createDiode(el: Diode, alloc: Allocator, circuit: Circuit): Devi
     element: el,
     settable: settableParams(DIODE_PARAMS),
     set(field: string, value: number): void {
-      const next = withModelParam(model, DIODE_PARAMS, el.name, field, value);
-      const nextLaw = lawOfModel(next, el, temperatureC, () => {});
+      const next = withParam(params, DIODE_PARAMS, el.name, field, value);
+      const nextLaw = lawOfParams(next, model.name, el, temperatureC);
       // RS = 0 has no internal node; the compiled layout cannot gain or lose one.
       if (nextLaw.rs > 0 !== law.rs > 0) throw badValue(el.name, field, value, `a value keeping RS ${law.rs > 0 ? '> 0' : '= 0'} on this compiled circuit`);
-      model = next;
+      params = next;
       law = nextLaw;
       grs = law.rs > 0 ? 1 / law.rs : 0;
       breakdownLimitBelow = Math.min(0, -law.bv + 10 * law.nvt);

@@ -97,12 +97,17 @@ export function createOpAmp(el: OpAmp, alloc: Allocator): Device {
   const pt: OpAmpPoint = { vo: 0, dInp: 0, dInn: 0, dVp: 0, dVn: 0 };
   const at = (x: Float64Array, i: number) => (i < 0 ? 0 : x[i]);
   let uOld = 0;
-  const drive = (vinp: number, vinn: number, vvp: number, vvn: number): [number, number] => {
+  // The tanh argument and half-window of the last drive() call (kept here: stamping runs every
+  // Newton iteration, and a returned pair would be garbage each time).
+  let driveU = 0;
+  let driveHh = 0;
+  const drive = (vinp: number, vinn: number, vvp: number, vvn: number): void => {
     const c = (vvp + vvn) / 2;
     const sp = vvp - vvn - 2 * law.headroom;
     const r = Math.hypot(sp, SPAN_SMOOTHING);
     const hh = (sp >= 0 ? (sp + r) / 2 : (SPAN_SMOOTHING * SPAN_SMOOTHING) / (2 * (r - sp))) / 2;
-    return [(law.gain * (vinp - vinn + law.vos) - c) / hh, hh];
+    driveU = (law.gain * (vinp - vinn + law.vos) - c) / hh;
+    driveHh = hh;
   };
 
   const evaluate = (x: Float64Array) => opampOutput(law, at(x, inp), at(x, inn), at(x, vp), at(x, vn), pt);
@@ -121,13 +126,16 @@ export function createOpAmp(el: OpAmp, alloc: Allocator): Device {
       gin = law.rin === Infinity ? 0 : 1 / law.rin;
     },
     seed(x: Float64Array | null): void {
-      uOld = x ? drive(at(x, inp), at(x, inn), at(x, vp), at(x, vn))[0] : 0;
+      if (x) drive(at(x, inp), at(x, inn), at(x, vp), at(x, vn));
+      uOld = x ? driveU : 0;
     },
     stamp(s: Stamper, ctx: StampContext): void {
       const x = ctx.x;
       let vinp = at(x, inp);
       const vinn = at(x, inn);
-      const [u, hh] = drive(vinp, vinn, at(x, vp), at(x, vn));
+      drive(vinp, vinn, at(x, vp), at(x, vn));
+      const u = driveU;
+      const hh = driveHh;
       let uUsed = u;
       const towards = uOld * Math.sign(u);
       if (ctx.limit && Math.abs(u) > DRIVE_EDGE && towards < DRIVE_EDGE) {
