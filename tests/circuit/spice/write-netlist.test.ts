@@ -32,8 +32,8 @@ describe('writeNetlist round trips', () => {
     const element = fc.oneof(
       fc.record({ kind: fc.constant('resistor' as const), nodes: fc.tuple(node, node), value }),
       fc.record({ kind: fc.constant('capacitor' as const), nodes: fc.tuple(node, node), value, leakage: fc.option(fc.double({ min: 1e-12, max: 1, noNaN: true }), { nil: undefined }) }),
-      fc.record({ kind: fc.constant('vsource' as const), nodes: fc.tuple(node, node), dc: fc.double({ min: -100, max: 100, noNaN: true }) }),
-      fc.record({ kind: fc.constant('isource' as const), nodes: fc.tuple(node, node), dc: fc.double({ min: -1, max: 1, noNaN: true }) }),
+      fc.record({ kind: fc.constant('vsource' as const), nodes: fc.tuple(node, node), dc: fc.double({ min: -100, max: 100, noNaN: true }).map((v) => v + 0) }),
+      fc.record({ kind: fc.constant('isource' as const), nodes: fc.tuple(node, node), dc: fc.double({ min: -1, max: 1, noNaN: true }).map((v) => v + 0) }),
     );
     fc.assert(
       fc.property(fc.array(element, { minLength: 1, maxLength: 12 }), (raw) => {
