@@ -69,8 +69,16 @@ export function modelHalfWidth(obs: Observable, h: Hypothesis, index: number, pr
   if (own !== undefined && Number.isFinite(own)) return own;
   if (h.id === NO_FAULT) return obs.halfWidth;
   const relative = Math.min(obs.halfWidth / Math.max(Math.abs(obs.nominal), 1), 0.3);
-  return Math.max(obs.halfWidth, relative * Math.abs(prediction));
+  return Math.max(obs.halfWidth, relative * Math.abs(prediction), FAULT_MODEL_ALLOWANCE * Math.abs(prediction));
 }
+
+/**
+ * A faulted circuit is simulated with nominal device models, and many faults drive an op-amp into
+ * saturation, where the level depends on the part: the TL072 datasheet (ST) gives an output swing of
+ * ±12 V minimum and ±13.5 V typical at ±15 V supplies, a spread of about 6 % of the swing. So a fault's
+ * prediction is trusted to ±5 % of its value at best, whatever the healthy band's width.
+ */
+export const FAULT_MODEL_ALLOWANCE = 0.05;
 
 /**
  * Readings are compared in a domain where errors are roughly even: volts as they are, resistance as

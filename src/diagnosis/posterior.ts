@@ -49,8 +49,16 @@ export function logLikelihood(dict: FaultDictionary, h: number, obsIndex: number
   const sigma = table.sigma[at];
   const z = (toDomain(obs, value, meter) - centre) / sigma;
   const gauss = Math.exp(-0.5 * z * z) / (sigma * Math.sqrt(2 * Math.PI));
-  return Math.log((1 - outlier) * gauss + outlier * flat);
+  // The "model is wrong here" share is a wide Cauchy around the prediction rather than a flat density:
+  // when no hypothesis foresaw a reading (10.5 V where one fault predicts 10.2 V and the rest 0 V),
+  // the nearest predictions must still rank first instead of every hypothesis falling back to its prior.
+  const scale = OUTLIER_SCALE * sigma;
+  const cauchy = 1 / (Math.PI * scale * (1 + (z / OUTLIER_SCALE) ** 2));
+  return Math.log((1 - outlier) * gauss + outlier * cauchy);
 }
+
+/** Width of the outlier share, in multiples of the hypothesis's own σ. */
+export const OUTLIER_SCALE = 10;
 
 /**
  * Bayes' rule over single-fault hypotheses: P(h | readings) ∝ P(h) · Π P(reading | h), the readings
