@@ -62,9 +62,9 @@ describe('voltwalk export', () => {
   });
 
   it('an unknown or missing format is a usage error, exit 2', async () => {
-    const r = await exportCmd('--format', 'kicad');
+    const r = await exportCmd('--format', 'pdf');
     expect(r.code).toBe(2);
-    expect(r.err).toMatch(/unknown --format "kicad" \(accepted: spice\)/);
+    expect(r.err).toMatch(/unknown --format "pdf" \(accepted: spice\)/);
     expect((await exportCmd()).code).toBe(2);
     expect((await exportCmd('--format', 'spice', 'stray')).code).toBe(2);
   });
