@@ -9,6 +9,7 @@ import { applyFault } from './apply-fault.js';
 import { DEFAULT_NO_FAULT_PRIOR } from './fault-modes.js';
 import type { Fault } from './fault.js';
 import { faultsFor } from './faults-for.js';
+import { createValueFaultSolver, faultedResistance, type ValueFaultSolver } from './value-fault-solver.js';
 import { NO_FAULT, type FaultDictionary, type Hypothesis, type Observable } from './dictionary-model.js';
 import { DEFAULT_METER } from './meter.js';
 import { dictionaryKey, loadDictionary, saveDictionary } from './dictionary-cache.js';
@@ -49,7 +50,8 @@ export interface BuiltDictionary extends FaultDictionary {
  * The fault dictionary (simulation before test; Bandler & Salama, Proc. IEEE 73(8), 1985): for the
  * healthy board and every candidate single fault, the reading a meter would show at every test
  * point under every condition in play. Each faulty board is solved warm-started from the healthy
- * solution of the same condition. A fault whose circuit does not settle stays in, predicting NaN
+ * solution of the same condition; a fault that only changes a resistor's value is solved on the
+ * healthy circuit compiled once per condition, with the value written in place (value-fault-solver.ts). A fault whose circuit does not settle stays in, predicting NaN
  * there ("unpredictable"), so the ranking neither drops nor favours it.
  * Results are cached per board content, substitutions and conditions.
  */
@@ -130,10 +132,21 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
 
   const unsettled = new Map<string, string[]>();
   const hypotheses: Hypothesis[] = [{ id: NO_FAULT, part: NO_FAULT, mode: NO_FAULT, fault: 'no fault', prior: 0, predictions: nominal }];
+  // Value-only faults are solved on one compiled circuit per condition, values written in place;
+  // the rest, and any value fault that does not settle that way, take the full rebuild below.
+  const fast = faults.some((f) => faultedResistance(f, 1) !== undefined)
+    ? new Map(conditions.map((c) => [c, createValueFaultSolver(board, c)]))
+    : new Map<string, ValueFaultSolver | undefined>();
   for (const fault of faults) {
-    const faulty = applyFault(board, fault);
+    let faulty: Board | undefined;
     const predictions: number[] = [];
     for (const condition of conditions) {
+      const quick = fast.get(condition)?.predict(fault);
+      if (quick) {
+        predictions.push(...quick);
+        continue;
+      }
+      faulty ??= applyFault(board, fault);
       let readings: Record<string, number> | undefined;
       try {
         readings = measureAll(faulty, condition, { initial: warm.get(condition) });
