@@ -16,7 +16,7 @@
  * instead of being driven off to huge voltages. The output current is returned through ground,
  * not drawn from the supply pins (a simplification; only iq is seen at the pins).
  */
-import type { OpAmp } from '../netlist.js';
+import type { OpAmp, OpAmpParams } from '../netlist.js';
 import type { Allocator, Device, StampContext } from './device.js';
 import type { Stamper } from '../stamper.js';
 import { badValue, requireNumber } from '../check-values.js';
@@ -33,14 +33,8 @@ export const IQ_KNEE = 1;
  */
 export const DRIVE_EDGE = 3;
 
-interface OpAmpLaw {
-  gain: number;
-  rout: number;
-  rin: number;
-  headroom: number;
-  iq: number;
-  vos: number;
-}
+/** The DC law reads every parameter but the noise densities. */
+type OpAmpLaw = Omit<OpAmpParams, 'en' | 'in'>;
 
 /** The law's values, each of which can be changed in place on a compiled op-amp. */
 const LAW_FIELDS: readonly string[] = ['gain', 'rout', 'rin', 'headroom', 'iq', 'vos'];
