@@ -1,5 +1,6 @@
 /** Small builders for test circuits, so each test reads like its schematic. */
-import type { Circuit, Element, Model, OpAmpParams } from '../../src/circuit/index.js';
+import { expect } from 'vitest';
+import { solveDC, type Circuit, type Element, type Model, type OpAmpParams } from '../../src/circuit/index.js';
 
 export function circuit(elements: Element[], models: Model[] = [], temperatureC?: number): Circuit {
   const c: Circuit = { title: 'test', elements, models: Object.fromEntries(models.map((m) => [m.name, m])) };
@@ -41,4 +42,27 @@ export const OPAMP = (name: string, inp: string, inn: string, out: string, vp: s
 /** Relative closeness with an absolute floor. */
 export function near(a: number, b: number, rel: number, abs = 0): boolean {
   return Math.abs(a - b) <= rel * Math.max(Math.abs(a), Math.abs(b)) + abs;
+}
+
+/**
+ * Solves the circuit and checks Kirchhoff's current law at every node with the element currents the
+ * solver reports: within reltol·Σ|I| + abstol, plus the 1e-12 S node shunt.
+ */
+export function expectKclBalanced(c: Circuit): void {
+  const s = solveDC(c);
+  const sum = new Map<string, number>();
+  const mag = new Map<string, number>();
+  for (const el of c.elements) {
+    el.nodes.forEach((nd, t) => {
+      const i = s.elements[el.name].terminalCurrents[t];
+      expect(Number.isFinite(i)).toBe(true);
+      sum.set(nd, (sum.get(nd) ?? 0) + i);
+      mag.set(nd, (mag.get(nd) ?? 0) + Math.abs(i));
+    });
+  }
+  for (const [nd, total] of sum) {
+    if (nd === '0') continue;
+    expect(Number.isFinite(s.nodes[nd])).toBe(true);
+    expect(Math.abs(total)).toBeLessThanOrEqual(1e-3 * mag.get(nd)! + 1e-12 * Math.abs(s.nodes[nd]) + 1e-11);
+  }
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { solveDC, type Element, type Circuit, type Model } from '../../src/circuit/index.js';
-import { circuit } from './helpers.js';
+import { circuit, expectKclBalanced } from './helpers.js';
 
 /** Plain nodal analysis with Gaussian elimination, written independently of the solver. */
 function nodalSolve(nodeCount: number, resistors: Array<[number, number, number]>, sources: Array<[number, number, number]>): number[] {
@@ -153,23 +153,7 @@ describe('properties of nonlinear networks', () => {
   it('Kirchhoff’s current law holds at every node with the reported element currents', () => {
     fc.assert(
       fc.property(nonlinear, ({ net, parts }) => {
-        const c = build(net, parts);
-        const s = solveDC(c);
-        const sum = new Map<string, number>();
-        const mag = new Map<string, number>();
-        for (const el of c.elements) {
-          el.nodes.forEach((nd, t) => {
-            const i = s.elements[el.name].terminalCurrents[t];
-            expect(Number.isFinite(i)).toBe(true);
-            sum.set(nd, (sum.get(nd) ?? 0) + i);
-            mag.set(nd, (mag.get(nd) ?? 0) + Math.abs(i));
-          });
-        }
-        for (const [nd, total] of sum) {
-          if (nd === '0') continue;
-          // reltol·Σ|I| + abstol, plus the 1e-12 S node shunt.
-          expect(Math.abs(total)).toBeLessThanOrEqual(1e-3 * mag.get(nd)! + 1e-12 * Math.abs(s.nodes[nd]) + 1e-11);
-        }
+        expectKclBalanced(build(net, parts));
       }),
       { numRuns: 80 },
     );
