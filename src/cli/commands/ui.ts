@@ -46,6 +46,9 @@ export const command: Command = {
       io.stdout(plainStart(boardFile, folder));
       return 0;
     }
+    // ink draws nothing until exit when CI or CONTINUOUS_INTEGRATION is set (it reads them once, on
+    // import). A keyboard and a screen are here, so a person is too: the screens must be drawn.
+    for (const name of ['CI', 'CONTINUOUS_INTEGRATION']) if (name in process.env) process.env[name] = 'false';
     const { startUi } = await import('../../ui/app/start-ui.js');
     return startUi({ boardFile, folder, cwd: io.cwd, wording: values.customer ? 'customer' : 'technician', colour: colourAllowed(io) });
   },
