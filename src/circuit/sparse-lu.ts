@@ -7,15 +7,18 @@
  * within PIVOT_THRESHOLD of their column's largest, and records the order and, per step, which
  * rows and columns it touches. Later factorisations replay a plan and only re-plan when a pivot
  * has become too small relative to its column (an op-amp saturating, a junction turning off).
- * A few recent plans are kept per pattern — in a cache shared by every circuit with the same
- * pattern — so a circuit flipping between two states, or the next circuit of a fault sweep,
- * does not plan again.
+ * Each instance keeps its few most recent plans, so a circuit flipping between two states does not
+ * plan again; a cache shared by every circuit with the same pattern hands a new instance (the next
+ * circuit of a fault sweep) the plans others made. The instance's own list comes first because
+ * circuits of one pattern solved in turn (a board's conditions, one Monte Carlo sample after
+ * another) would otherwise push each other's plans out of the shared list.
  */
 import { SingularMatrixError } from './errors.js';
 
 const PIVOT_THRESHOLD = 1e-3;
 const ABSOLUTE_PIVOT = 1e-300;
 const PLANS_PER_PATTERN = 4;
+const PLANS_PER_INSTANCE = 4;
 const CACHED_PATTERNS = 64;
 
 interface LuPlan {
@@ -63,6 +66,14 @@ function sharedPlans(n: number, positions: Int32Array): LuPlan[] {
   return entry.plans;
 }
 
+/** Moves (or adds) a plan to the front of a most-recent-first list of at most `limit`. */
+function remember(list: LuPlan[], plan: LuPlan, limit: number): void {
+  const at = list.indexOf(plan);
+  if (at >= 0) list.splice(at, 1);
+  list.unshift(plan);
+  if (list.length > limit) list.pop();
+}
+
 export class SparseLu {
   readonly n: number;
   private readonly pattern: Uint8Array;
@@ -71,7 +82,9 @@ export class SparseLu {
   private readonly z: Float64Array;
   /** Planning scratch: the pattern plus fill-in found so far. */
   private readonly mark: Uint8Array;
+  /** This instance's recent plans, most recent first, and the pattern's shared ones. */
   private readonly plans: LuPlan[];
+  private readonly shared: LuPlan[];
   private current: LuPlan | null = null;
   /** How many plans this instance made (for tests and benchmarks). */
   plansMade = 0;
@@ -89,7 +102,8 @@ export class SparseLu {
     this.w = new Float64Array(n * n);
     this.z = new Float64Array(n);
     this.mark = new Uint8Array(n * n);
-    this.plans = sharedPlans(n, this.positions);
+    this.shared = sharedPlans(n, this.positions);
+    this.plans = this.shared.slice();
   }
 
   /** Factors `a`, which must be zero outside the pattern. */
@@ -97,17 +111,20 @@ export class SparseLu {
     for (let i = 0; i < this.plans.length; i++) {
       const plan = this.plans[i];
       if (this.replay(a, plan)) {
-        if (i > 0) {
-          this.plans.splice(i, 1);
-          this.plans.unshift(plan);
-        }
+        if (i > 0) remember(this.plans, plan, PLANS_PER_INSTANCE);
         this.current = plan;
         return;
       }
     }
+    for (const plan of this.shared) {
+      if (this.plans.includes(plan) || !this.replay(a, plan)) continue;
+      remember(this.plans, plan, PLANS_PER_INSTANCE);
+      this.current = plan;
+      return;
+    }
     const plan = this.plan(a);
-    this.plans.unshift(plan);
-    if (this.plans.length > PLANS_PER_PATTERN) this.plans.pop();
+    remember(this.plans, plan, PLANS_PER_INSTANCE);
+    remember(this.shared, plan, PLANS_PER_PATTERN);
     this.current = plan;
   }
 
