@@ -7,5 +7,5 @@ export { measureAll, readVoltage, readResistance, solvePatiently, FALLBACK_DC_OP
 export { DEFAULT_OHMMETER, OPEN_CIRCUIT_OHMS, METER_NODE, METER_SOURCE, METER_RESISTOR, ohmmeterReading, type OhmmeterModel } from './ohmmeter.js';
 export { findCondition, findTestPoint, findPart, roleTestPoint, roleParts, roleCondition, roleStage, testPointsFor, stagesOf } from './lookup.js';
 export { neighbourPins } from './neighbours.js';
-export { FIXED_PINS, OPAMP_PACKAGES, DIP_PIN_COUNT, requiredPins, switchPinsUsed, type AmplifierPins, type OpAmpPackage } from './pins.js';
+export { FIXED_PINS, POLARISED_KINDS, OPAMP_PACKAGES, DIP_PIN_COUNT, requiredPins, switchPinsUsed, type AmplifierPins, type OpAmpPackage } from './pins.js';
 export { formatPath } from './shape-problems.js';

@@ -20,6 +20,12 @@ export const FIXED_PINS: Partial<Record<PartKind, readonly string[]>> = {
   pot: ['1', '2', '3'],
 };
 
+/**
+ * Kinds that can be fitted the wrong way round: an orientation check looks at these and no others
+ * (a ceramic capacitor or a resistor has no wrong way).
+ */
+export const POLARISED_KINDS: ReadonlySet<PartKind> = new Set<PartKind>(['electrolytic', 'diode', 'zener', 'led', 'npn', 'pnp', 'opamp-dual', 'opamp-quad', 'connector']);
+
 /** One amplifier of a multi-amplifier package: its pins and the letter added to the element name. */
 export interface AmplifierPins {
   suffix: string;

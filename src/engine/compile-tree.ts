@@ -2,6 +2,7 @@ import type { Condition, Part, TestPoint } from '../schemas/board.js';
 import type { Hazard, MeasureNode, Tree, TreeNode } from '../schemas/tree.js';
 import type { BoardView } from './board-view.js';
 import { edgesOf } from './tree-graph.js';
+import { POLARISED_KINDS } from '../board/pins.js';
 import { SAFETY_HOLD } from './walk-context.js';
 
 /** A tree step resolved against one board: what it points at there, whether it is skipped, what it needs acknowledged. */
@@ -52,6 +53,14 @@ function planStep(id: string, node: TreeNode, view: BoardView, oscilloscope: boo
       break;
     case 'inspect':
       plan.parts = view.parts(node.part);
+      if (node.look === 'orientation') {
+        const all = plan.parts.length;
+        plan.parts = plan.parts.filter((p) => POLARISED_KINDS.has(p.kind));
+        if (all > 0 && !plan.parts.length) {
+          plan.skip = { reason: `none of this board's parts for the role "${node.part}" can be fitted the wrong way round`, to: node.ok };
+          break;
+        }
+      }
       if (!plan.parts.length) plan.skip = { reason: lacks('part', node.part), to: node.ok };
       break;
     case 'observe':

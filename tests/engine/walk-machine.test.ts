@@ -121,6 +121,14 @@ describe('walk machine: routing', () => {
     expect(step.skippedOnTheWay).toEqual([{ node: 'look', reason: expect.stringContaining('"input-opamp"') }]);
   });
 
+  it('an orientation check whose role holds only parts with no wrong way round is skipped, saying why', () => {
+    const tree = smallTree();
+    tree.nodes.look = { ...tree.nodes.look, part: 'input-gain-pot' } as typeof tree.nodes.look;
+    const w = walkTo(tree);
+    expect(w.step().node).toBe('ohms');
+    expect(w.step().skippedOnTheWay).toEqual([{ node: 'look', reason: expect.stringContaining('fitted the wrong way round') }]);
+  });
+
   it('the person may skip a measurement: the walk goes on as if in band, and the skip is recorded', () => {
     const w = toPoweredMeasure();
     w.actor.send({ type: 'user.skip' });
