@@ -20,7 +20,9 @@ export const READINGS = {
 };
 
 export function universalView(): BoardView {
-  const parts = Object.keys(PART_ROLES).map((role, i) => ({ ref: `X${i + 1}`, kind: 'resistor', value: '1k', pins: {}, where: `where ${role} is` }));
+  // Electrolytics: a part with a value that can also be fitted backwards, so every kind of
+  // inspection step is presented rather than skipped.
+  const parts = Object.keys(PART_ROLES).map((role, i) => ({ ref: `X${i + 1}`, kind: 'electrolytic', value: '10u', pins: {}, where: `where ${role} is` }));
   const board = { id: 'universal', name: 'every role', rails: [], parts } as unknown as Board;
   const unpoweredTp = new Set(['pos-rail-resistance', 'neg-rail-resistance']);
   return {
