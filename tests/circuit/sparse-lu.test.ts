@@ -70,6 +70,27 @@ describe('SparseLu', () => {
     expect(x[1]).toBeCloseTo(1, 12);
   });
 
+  it('keeps a plan whose pivot has become small, and refines the answer back to full precision', () => {
+    // A pattern no other test uses, so the plan is this instance's own: the third unknown first
+    // (it touches nothing), then the (0,0) entry, the largest of its column.
+    const pattern = Uint8Array.from([1, 1, 0, 1, 1, 0, 0, 0, 1]);
+    const lu = new SparseLu(3, pattern);
+    const x = new Float64Array(3);
+    lu.factor(Float64Array.from([2, 1, 0, 1, 3, 0, 0, 0, 1]));
+    const planned = lu.plansMade;
+    // [ε 1; 1 1]·x = [1; 2] with ε = 1e-6: the plan's (0,0) pivot is now a millionth of its
+    // column. Eliminating on it loses about six digits; one refinement step wins them back.
+    const eps = 1e-6;
+    lu.factor(Float64Array.from([eps, 1, 0, 1, 1, 0, 0, 0, 1]));
+    expect(lu.plansMade).toBe(planned);
+    lu.solve(Float64Array.from([1, 2, 5]), x);
+    const x0 = 1 / (1 - eps);
+    const x1 = 1 - eps * x0;
+    expect(Math.abs(x[0] - x0)).toBeLessThanOrEqual(4e-16);
+    expect(Math.abs(x[1] - x1)).toBeLessThanOrEqual(4e-16);
+    expect(x[2]).toBe(5);
+  });
+
   it('reports a singular matrix', () => {
     const lu = new SparseLu(2, Uint8Array.from([1, 1, 1, 1]));
     expect(() => lu.factor(Float64Array.from([1, 2, 2, 4]))).toThrow(SingularMatrixError);
