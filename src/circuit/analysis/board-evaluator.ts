@@ -44,7 +44,8 @@ interface Setup {
   /**
    * Per setter (same order): how the unknowns move per unit of deviation, measured by solving at
    * u = ±SECANT_AT (negative and positive sides apart: a part's spread need not be symmetric).
-   * Empty when the secants could not all be solved; samples then start from the offset seed.
+   * Empty until predictStarts(), or when the secants could not all be solved; samples then start
+   * from the offset seed.
    */
   slopes: Array<{ down: Float64Array; up: Float64Array }>;
   /** Output index → reading from a solution. */
@@ -74,6 +75,12 @@ export interface BoardEvaluator {
   perCondition: ConditionEvaluator[];
   /** Operating points solved so far. */
   solves: () => number;
+  /**
+   * Solves each circuit's secants (two solves per deviation that touches it, once), after which
+   * every evaluation starts from its linear prediction. Worth it before many evaluations (Monte
+   * Carlo); a handful of points (worst case, one simulated board) is cheaper without.
+   */
+  predictStarts: () => void;
   /** Circuits whose nominal operating point could not be found: their test points have no output. */
   unsolved: Array<{ condition: string; testPoints: string[]; reason: string }>;
 }
@@ -121,7 +128,6 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
         options: { ...options, ...WARM_OPTIONS, start: seed }, setters, offsets, slopes: [], readers, view,
         nodeNames: [...solver.compiled.nodeIndex.keys()], nodeUnknowns: Int32Array.from(solver.compiled.nodeIndex.values()),
       };
-      setup.slopes = secantSlopes(setup, deviations, () => solves++);
       setups.push(setup);
     }
   }
@@ -160,7 +166,13 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
       },
     };
   });
-  return { deviations, outputs, evaluate, perCondition, solves: () => solves, unsolved };
+  let predicted = false;
+  const predictStarts = () => {
+    if (predicted) return;
+    predicted = true;
+    for (const setup of setups) setup.slopes = secantSlopes(setup, deviations, () => solves++);
+  };
+  return { deviations, outputs, evaluate, perCondition, solves: () => solves, unsolved, predictStarts };
 }
 
 /**

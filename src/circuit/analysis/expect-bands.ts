@@ -94,6 +94,8 @@ export function expectReport(board: Board, options: ExpectOptions = {}): ExpectR
       max[o] = wc.max[k];
     });
   });
+  // After the worst case, so its bands are the same whether or not a Monte Carlo run follows.
+  if (samples > 0) ev.predictStarts();
   const mc =
     samples > 0 && ev.outputs.length > 0
       ? monteCarlo(
