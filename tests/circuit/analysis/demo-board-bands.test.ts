@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { DEMO_BOARD_FILE, loadBoard } from '../../../src/board/index.js';
 import { boardEvaluator, detectorTimes, monteCarlo, worstCase } from '../../../src/circuit/analysis/index.js';
+import { createRng } from '../../../src/circuit/analysis/prng.js';
+import { drawDeviation } from '../../../src/circuit/analysis/deviation.js';
 
 describe('bands on the bundled demo board', () => {
   const board = loadBoard(DEMO_BOARD_FILE);
@@ -17,6 +19,23 @@ describe('bands on the bundled demo board', () => {
     });
     expect(outside).toEqual([]);
     expect(wc.failures + mc.failures).toBe(0);
+  }, 300_000);
+
+  it('samples started from their predicted operating point settle where samples started from nominal do', () => {
+    // The hardest conditions for the prediction: a precision rectifier resting between its diodes
+    // (quiescent) and meter comparators near their thresholds (input-gain-max).
+    const conditions = ['quiescent', 'input-gain-max'];
+    const plain = boardEvaluator(board, conditions);
+    const predicted = boardEvaluator(board, conditions);
+    predicted.predictStarts();
+    const rng = createRng(7);
+    for (let k = 0; k < 40; k++) {
+      const u = Float64Array.from(plain.deviations, (d) => drawDeviation(d.distribution, rng));
+      const a = plain.evaluate(u);
+      const b = predicted.evaluate(u);
+      // Newton stops within reltol 1e-3 of the step (vntol 1 µV): two starts may land that far apart.
+      a.forEach((v, j) => expect(Math.abs(v - b[j]), `${plain.outputs[j].condition} ${plain.outputs[j].testPoint}`).toBeLessThanOrEqual(2e-3 * Math.abs(v) + 1e-4));
+    }
   }, 300_000);
 
   it('gives attack and release times from the roles at mid-rotation', () => {
