@@ -8,11 +8,11 @@
  * rows and columns it touches. Later factorisations replay a plan and only re-plan when a pivot
  * has become far too small relative to its column (REPLAY_THRESHOLD; an op-amp saturating, a
  * junction turning off).
- * Each instance keeps its few most recent plans, so a circuit flipping between two states does not
- * plan again; a cache shared by every circuit with the same pattern hands a new instance (the next
- * circuit of a fault sweep) the plans others made. The instance's own list comes first because
- * circuits of one pattern solved in turn (a board's conditions, one Monte Carlo sample after
- * another) would otherwise push each other's plans out of the shared list.
+ * Each instance keeps its recent plans, so a circuit flipping between states does not plan again.
+ * Plans are not shared between instances: which plan factors a matrix decides its rounding, and
+ * Newton lands anywhere within its tolerance, so a shared cache would make a new solver's answer
+ * depend on whatever the process solved before. A caller that needs answers independent of the
+ * order of its solves saves the plan list once (savePlans) and restores it before each solve.
  */
 import { SingularMatrixError } from './errors.js';
 
@@ -32,17 +32,15 @@ const PIVOT_THRESHOLD = 1e-3;
 const REPLAY_THRESHOLD = 1e-7;
 const ABSOLUTE_PIVOT = 1e-300;
 /**
- * Plans kept per instance and per pattern. A board's LEDs and detector diodes switch on and off
- * between faults and conditions, and a plan that pivots on a conducting junction fails once it is
- * off, so a circuit meets many pivot layouts; a failed replay stops at the first small pivot (early
- * in the order), so trying more kept plans is cheap. Building the demo board's fault dictionary,
- * 4/8/16 kept plans: 26.1k/17.8k/11.7k plans made, best of three 17.1/14.2/13.5 s CPU.
+ * Plans kept per instance. A board's LEDs and detector diodes switch on and off between faults and
+ * conditions, and a plan that pivots on a conducting junction fails once it is off, so a circuit
+ * meets many pivot layouts; a failed replay stops at the first small pivot (early in the order),
+ * so trying more kept plans is cheap. Building the demo board's fault dictionary, 4/8/16 kept
+ * plans: 26.1k/17.8k/11.7k plans made, best of three 17.1/14.2/13.5 s CPU.
  */
-const PLANS_PER_PATTERN = 16;
-const PLANS_PER_INSTANCE = 16;
-const CACHED_PATTERNS = 64;
+const PLANS_KEPT = 16;
 
-interface LuPlan {
+export interface LuPlan {
   pr: Int32Array;
   pc: Int32Array;
   lStart: Int32Array;
@@ -51,40 +49,6 @@ interface LuPlan {
   uCols: Int32Array;
   /** Fill-in positions, zeroed before each replay. */
   fill: Int32Array;
-}
-
-interface PatternEntry {
-  positions: Int32Array;
-  plans: LuPlan[];
-}
-
-const cache = new Map<string, PatternEntry[]>();
-
-function patternKey(n: number, positions: Int32Array): string {
-  let h = 0x811c9dc5;
-  for (let t = 0; t < positions.length; t++) {
-    h ^= positions[t];
-    h = Math.imul(h, 0x01000193) >>> 0;
-  }
-  return `${n}:${positions.length}:${h}`;
-}
-
-function sharedPlans(n: number, positions: Int32Array): LuPlan[] {
-  const key = patternKey(n, positions);
-  let bucket = cache.get(key);
-  if (!bucket) {
-    if (cache.size >= CACHED_PATTERNS) cache.delete(cache.keys().next().value as string);
-    bucket = [];
-    cache.set(key, bucket);
-  }
-  outer: for (const entry of bucket) {
-    if (entry.positions.length !== positions.length) continue;
-    for (let t = 0; t < positions.length; t++) if (entry.positions[t] !== positions[t]) continue outer;
-    return entry.plans;
-  }
-  const entry = { positions: positions.slice(), plans: [] as LuPlan[] };
-  bucket.push(entry);
-  return entry.plans;
 }
 
 /** Moves (or adds) a plan to the front of a most-recent-first list of at most `limit`. */
@@ -103,9 +67,8 @@ export class SparseLu {
   private readonly z: Float64Array;
   /** Planning scratch: the pattern plus fill-in found so far. */
   private readonly mark: Uint8Array;
-  /** This instance's recent plans, most recent first, and the pattern's shared ones. */
-  private readonly plans: LuPlan[];
-  private readonly shared: LuPlan[];
+  /** This instance's recent plans, most recent first. */
+  private plans: LuPlan[] = [];
   private current: LuPlan | null = null;
   /**
    * Whether the last factorisation replayed a pivot below PIVOT_THRESHOLD of its column; solve()
@@ -134,8 +97,16 @@ export class SparseLu {
     this.r = new Float64Array(n);
     this.d = new Float64Array(n);
     this.mark = new Uint8Array(n * n);
-    this.shared = sharedPlans(n, this.positions);
-    this.plans = this.shared.slice();
+  }
+
+  /** The kept plans as they are now, for restorePlans. */
+  savePlans(): readonly LuPlan[] {
+    return this.plans.slice();
+  }
+
+  /** Puts back a saved plan list (an empty one: as a new instance). */
+  restorePlans(saved: readonly LuPlan[]): void {
+    this.plans = saved.slice();
   }
 
   /** Factors `a`, which must be zero outside the pattern. */
@@ -143,20 +114,13 @@ export class SparseLu {
     for (let i = 0; i < this.plans.length; i++) {
       const plan = this.plans[i];
       if (this.replay(a, plan)) {
-        if (i > 0) remember(this.plans, plan, PLANS_PER_INSTANCE);
+        if (i > 0) remember(this.plans, plan, PLANS_KEPT);
         this.current = plan;
         return;
       }
     }
-    for (const plan of this.shared) {
-      if (this.plans.includes(plan) || !this.replay(a, plan)) continue;
-      remember(this.plans, plan, PLANS_PER_INSTANCE);
-      this.current = plan;
-      return;
-    }
     const plan = this.plan(a);
-    remember(this.plans, plan, PLANS_PER_INSTANCE);
-    remember(this.shared, plan, PLANS_PER_PATTERN);
+    remember(this.plans, plan, PLANS_KEPT);
     this.current = plan;
   }
 

@@ -118,6 +118,10 @@ export function createValueFaultSolver(board: Board, conditionId: string): Value
         setup.setters.set(fault.part, set);
       }
       set(value);
+      // Every fault starts with no pivot plans, as a freshly built circuit does: which plan
+      // factors a matrix decides its rounding, and so where Newton lands within its tolerance.
+      // Kept plans would make a fault's prediction depend on the faults solved before it.
+      setup.solver.engine.lu.restorePlans([]);
       try {
         setup.solver.solveLean(setup.start ? { start: setup.start } : {});
         setup.read(setup.solver.x, readings);

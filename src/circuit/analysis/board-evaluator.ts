@@ -5,15 +5,16 @@ import { buildCircuit, FALLBACK_DC_OPTIONS, readResistance, readVoltage, testPoi
 import { deviatedValue } from './deviation.js';
 import { boardDeviations, type PartDeviation } from './part-spreads.js';
 import type { Evaluate } from './worst-case.js';
+import type { LuPlan } from '../sparse-lu.js';
 
 /**
  * The board as a function from part deviations to test-point readings, for the tolerance analyses.
  *
  * Each condition's circuit is built and compiled once, into a solver kept for every sample; a
  * sample only writes the deviated values (element values, one part's model parameters, op-amp
- * offsets) into the compiled devices, then solves warm-started from the nominal solution of that
- * circuit (always the nominal one, never the previous sample's, so a sample's result does not
- * depend on the order samples are drawn in). Samples use the solver's lean solve: the same
+ * offsets) into the compiled devices, then solves warm-started from near the nominal solution of
+ * that circuit (never from the previous sample's, and with the solver's pivot plans put back as
+ * they were, so a sample's result does not depend on the order samples are drawn in). Samples use the solver's lean solve: the same
  * convergence test, but only the node voltages the readings need are read out of it.
  */
 
@@ -48,6 +49,11 @@ interface Setup {
    * from the offset seed.
    */
   slopes: Array<{ down: Float64Array; up: Float64Array }>;
+  /**
+   * The solver's pivot plans as they were before any sample: restored before each sample, so a
+   * sample's answer depends on its deviations alone, never on the samples solved before it.
+   */
+  plans: readonly LuPlan[];
   /** Output index → reading from a solution. */
   readers: Array<{ output: number; read: (s: DcSolution) => number }>;
   /**
@@ -125,13 +131,14 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
       const view: DcSolution = { ...solution, nodes: { ...solution.nodes }, sourceCurrents: {}, elements: {}, junctions: {}, warnings: [], unknowns: undefined };
       const setup: Setup = {
         condition, circuit, solver, nominal, seed, base: new Float64Array(nominal.length),
-        options: { ...options, ...WARM_OPTIONS, start: seed }, setters, offsets, slopes: [], readers, view,
+        options: { ...options, ...WARM_OPTIONS, start: seed }, setters, offsets, slopes: [], plans: solver.engine.lu.savePlans(), readers, view,
         nodeNames: [...solver.compiled.nodeIndex.keys()], nodeUnknowns: Int32Array.from(solver.compiled.nodeIndex.values()),
       };
       setups.push(setup);
     }
   }
   const solveSetup = (setup: Setup, u: Float64Array, into: Float64Array, at: (output: number) => number) => {
+    setup.solver.engine.lu.restorePlans(setup.plans);
     solveAlongPath(setup, deviations, u, () => solves++);
     const { view, nodeNames, nodeUnknowns } = setup;
     const x = setup.solver.x;
@@ -170,7 +177,10 @@ export function boardEvaluator(board: Board, conditions: string[]): BoardEvaluat
   const predictStarts = () => {
     if (predicted) return;
     predicted = true;
-    for (const setup of setups) setup.slopes = secantSlopes(setup, deviations, () => solves++);
+    for (const setup of setups) {
+      setup.slopes = secantSlopes(setup, deviations, () => solves++);
+      setup.plans = setup.solver.engine.lu.savePlans();
+    }
   };
   return { deviations, outputs, evaluate, perCondition, solves: () => solves, unsolved, predictStarts };
 }

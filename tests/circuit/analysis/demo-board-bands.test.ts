@@ -38,6 +38,16 @@ describe('bands on the bundled demo board', () => {
     }
   }, 300_000);
 
+  it("a sample's readings do not depend on the samples solved before it", () => {
+    const ev = boardEvaluator(board, ['quiescent', 'input-gain-max']);
+    ev.predictStarts();
+    const rng = createRng(3);
+    const us = Array.from({ length: 12 }, () => Float64Array.from(ev.deviations, (d) => drawDeviation(d.distribution, rng)));
+    const forward = us.map((u) => ev.evaluate(u));
+    const backward = [...us].reverse().map((u) => ev.evaluate(u)).reverse();
+    forward.forEach((y, k) => expect([...backward[k]]).toEqual([...y]));
+  }, 300_000);
+
   it('gives attack and release times from the roles at mid-rotation', () => {
     const t = detectorTimes(board, 'quiescent');
     // τ = R·C and the 10–90 % time τ·ln 9 (first-order step response, textbook)
