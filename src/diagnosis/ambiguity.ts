@@ -1,4 +1,4 @@
-import { spreadTable, type FaultDictionary } from './dictionary-model.js';
+import { rowView, spreadTable, type FaultDictionary } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
 /**
@@ -20,7 +20,23 @@ export function distinguishable(dict: FaultDictionary, a: number, b: number, met
 }
 
 /**
- * Ambiguity groups: sets of hypotheses no reading in play can separate. Built greedily in the given
+ * Whether some reading can still tell two hypotheses apart whichever of their variant predictions
+ * holds (see Hypothesis.variants): false as soon as one variant of each looks alike everywhere. A
+ * fault joining an op-amp's inputs looks like that output stuck high or stuck low, depending on an
+ * offset no reading reveals beforehand, and is shown with whichever it cannot be told from.
+ * Without variants this is `distinguishable`.
+ */
+export function separable(dict: FaultDictionary, a: number, b: number, meter: MeterSpec = DEFAULT_METER): boolean {
+  const { rows, first } = rowView(dict);
+  if (rows === dict) return distinguishable(dict, a, b, meter);
+  for (let ra = first[a]; ra < first[a + 1]; ra++) {
+    for (let rb = first[b]; rb < first[b + 1]; rb++) if (!distinguishable(rows, ra, rb, meter)) return false;
+  }
+  return true;
+}
+
+/**
+ * Ambiguity groups: sets of hypotheses no reading in play can separate. Judged with `separable`. Built greedily in the given
  * order (most probable first), a hypothesis joining the first group whose every member it cannot be
  * told apart from (complete linkage, so a chain of near neighbours never merges two distinct faults).
  * Returns, per hypothesis in `order`, its group number counted from 0.
@@ -31,7 +47,7 @@ export function ambiguityGroups(dict: FaultDictionary, order: number[], meter: M
   for (const h of order) {
     let joined = -1;
     for (let g = 0; g < groups.length && joined < 0; g++) {
-      if (groups[g].every((m) => !distinguishable(dict, h, m, meter))) joined = g;
+      if (groups[g].every((m) => !separable(dict, h, m, meter))) joined = g;
     }
     if (joined < 0) {
       groups.push([h]);

@@ -12,7 +12,7 @@ import type { BuiltDictionary } from './dictionary.js';
  * raised whenever fault models or the file layout change. A file that cannot be read or parsed is
  * ignored and rebuilt: a cache is never a reason to fail.
  */
-export const DICTIONARY_FORMAT = 'voltwalk-dictionary/1';
+export const DICTIONARY_FORMAT = 'voltwalk-dictionary/2';
 
 export function defaultCacheDir(env: Record<string, string | undefined> = process.env): string {
   return env.VOLTWALK_CACHE_DIR ?? join(env.XDG_CACHE_HOME ?? join(homedir(), '.cache'), 'voltwalk');
@@ -32,7 +32,7 @@ export function saveDictionary(dir: string, key: string, dict: BuiltDictionary):
     const data = {
       format: DICTIONARY_FORMAT,
       observables: dict.observables,
-      hypotheses: dict.hypotheses.map((h) => ({ ...h, predictions: h.predictions.map(encode) })),
+      hypotheses: dict.hypotheses.map((h) => ({ ...h, predictions: h.predictions.map(encode), ...(h.variants ? { variants: h.variants.map((v) => v.map(encode)) } : {}) })),
       faults: dict.faults,
       unsettled: [...dict.unsettled.entries()],
       skippedConditions: dict.skippedConditions,
@@ -50,8 +50,13 @@ export function loadDictionary(dir: string, key: string, board: Board): BuiltDic
   try {
     const data = JSON.parse(readFileSync(join(dir, `${key}.json`), 'utf8'));
     if (data.format !== DICTIONARY_FORMAT || !Array.isArray(data.hypotheses) || !Array.isArray(data.observables)) return undefined;
-    const hypotheses = data.hypotheses.map((h: { predictions: unknown[] }) => ({ ...h, predictions: h.predictions.map(decode) }));
-    if (hypotheses.some((h: { predictions: number[] }) => h.predictions.length !== data.observables.length)) return undefined;
+    const hypotheses = data.hypotheses.map((h: { predictions: unknown[]; variants?: unknown[][] }) => ({
+      ...h,
+      predictions: h.predictions.map(decode),
+      ...(h.variants ? { variants: h.variants.map((v) => v.map(decode)) } : {}),
+    }));
+    const width = data.observables.length;
+    if (hypotheses.some((h: { predictions: number[]; variants?: number[][] }) => h.predictions.length !== width || h.variants?.some((v) => v.length !== width))) return undefined;
     return { board, observables: data.observables, hypotheses, faults: data.faults, unsettled: new Map(data.unsettled), skippedConditions: data.skippedConditions ?? [] };
   } catch {
     return undefined;

@@ -1,7 +1,7 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Board } from '../schemas/board.js';
-import { buildCircuit, measureAll, testPointsFor, withSubstitutions } from '../board/index.js';
+import { buildCircuit, measureAll, modelNameFor, OPAMP_PACKAGES, resolveOpAmp, testPointsFor, withSubstitutions } from '../board/index.js';
 import { solveDC, type DcSolution } from '../circuit/index.js';
 import { expectBands, type Band } from '../circuit/analysis/expect-bands.js';
 import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
@@ -156,6 +156,13 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
     }
     hypotheses.push({ id: fault.id, part: fault.part, mode: fault.mode, fault: fault.fault, prior: fault.prior, predictions });
   });
+  // After every nominal solve, so the solvers' reuse of earlier pivot plans meets the nominal
+  // circuits in the same order with or without these extra solves.
+  faults.forEach((fault, i) => {
+    if (!joinsInputs(board, fault)) return;
+    const variants = offsetVariants(applyFault(board, fault), fault.part, conditions, hypotheses[i + 1].predictions, board, warm);
+    if (variants) hypotheses[i + 1].variants = variants;
+  });
 
   // Priors: faults share 1 − P(no fault) in proportion to their weights.
   const noFault = options.noFaultPrior ?? DEFAULT_NO_FAULT_PRIOR;
@@ -180,6 +187,60 @@ function valueFaultPredictions(board: Board, conditions: string[], faults: Fault
     if (solver) out.set(condition, faults.map((f) => solver.predict(f)));
   }
   return out;
+}
+
+/**
+ * A bridge between one amplifier's two inputs leaves it with no difference to amplify but its own
+ * input offset: with nominal models (offset at its nominal value) the output sits wherever the
+ * balance puts it, while a real part, with an offset a few millivolts either way, drives it to one
+ * rail or the other. Such a fault gets two more prediction vectors, the package's offset at either end
+ * of its stated spread (vosMax). Only these faults: solving every fault three times would triple the
+ * dictionary's build. An open or shorted feedback resistor can leave an amplifier open loop on a
+ * balance too; those stay nominal, as finding them would take a solve per fault.
+ */
+function joinsInputs(board: Board, fault: Fault): boolean {
+  if (fault.mode !== 'bridge' || !fault.pins) return false;
+  const part = board.parts.find((p) => p.ref === fault.part);
+  const pkg = part && OPAMP_PACKAGES[part.kind];
+  if (!pkg) return false;
+  const [a, b] = fault.pins;
+  return pkg.amplifiers.some((amp) => (amp.plus === a && amp.minus === b) || (amp.plus === b && amp.minus === a));
+}
+
+function offsetVariants(faulty: Board, ref: string, conditions: string[], nominal: number[], board: Board, warm: Map<string, DcSolution | undefined>): number[][] | undefined {
+  const part = faulty.parts.find((p) => p.ref === ref);
+  const name = part && modelNameFor(part);
+  const params = name === undefined ? undefined : resolveOpAmp(faulty, name);
+  if (!part || name === undefined || !params?.vosMax) return undefined;
+  const powered = new Set(faulty.conditions.filter((c) => c.powered).map((c) => c.id));
+  return [1, -1].map((sign) => {
+    // A model of its own for this package only: the other amplifiers on the board keep their offsets.
+    const shifted = `${name}~vos${sign > 0 ? '+' : '-'}`;
+    const variant: Board = {
+      ...faulty,
+      opampModels: { ...faulty.opampModels, [shifted]: { ...(faulty.opampModels[name] ?? {}), ...params, vos: params.vos + sign * params.vosMax! } },
+      parts: faulty.parts.map((p) => (p === part ? { ...p, model: shifted } : p)),
+    };
+    const predictions: number[] = [];
+    let at = 0;
+    for (const condition of conditions) {
+      const points = testPointsFor(board, condition);
+      // Unpowered, an offset moves nothing: the ohmmeter readings are the nominal ones.
+      if (!powered.has(condition)) {
+        predictions.push(...nominal.slice(at, at + points.length));
+      } else {
+        let readings: Record<string, number> | undefined;
+        try {
+          readings = measureAll(variant, condition, { initial: warm.get(condition) });
+        } catch (error) {
+          if (!isSolverFailure(error)) throw error;
+        }
+        for (const tp of points) predictions.push(readings ? readings[tp.id] : NaN);
+      }
+      at += points.length;
+    }
+    return predictions;
+  });
 }
 
 const isSolverFailure = (error: unknown) => error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError;

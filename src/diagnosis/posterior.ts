@@ -1,5 +1,5 @@
 import { UserInputError } from '../errors.js';
-import { domainWidth, observableKey, spreadTable, toDomain, type FaultDictionary, type Reading } from './dictionary-model.js';
+import { domainWidth, observableKey, rowView, spreadTable, toDomain, type FaultDictionary, type Reading } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
 export interface PosteriorOptions {
@@ -64,15 +64,33 @@ export const OUTLIER_SCALE = 10;
  * Bayes' rule over single-fault hypotheses: P(h | readings) ∝ P(h) · Π P(reading | h), the readings
  * independent given h (each carries its own meter error). Worked in logs and normalised with the
  * log-sum-exp shift so a long run of readings cannot underflow. Returns one probability per hypothesis.
+ * A hypothesis with variant predictions is the sum of its rows (see rowView): each row's readings
+ * multiply together, so a fault cannot borrow one reading from one variant and the next from another.
  */
 export function posterior(dict: FaultDictionary, readings: Reading[], options: PosteriorOptions = {}): number[] {
+  return rowPosterior(dict, readings, options).hypotheses;
+}
+
+export interface RowPosterior {
+  /** Per hypothesis of the dictionary. */
+  hypotheses: number[];
+  /** Per row of rowView(dict): what the next-probe look-ahead works on. */
+  rows: number[];
+}
+
+export function rowPosterior(dict: FaultDictionary, readings: Reading[], options: PosteriorOptions = {}): RowPosterior {
   const where = locateReadings(dict, readings);
-  const logs = dict.hypotheses.map((h) => Math.log(Math.max(h.prior, 0)));
+  const { rows, parent } = rowView(dict);
+  const logs = rows.hypotheses.map((h) => Math.log(Math.max(h.prior, 0)));
   // Reading by reading: the reading's place in the comparison domain is worked out once.
   readings.forEach((r, k) => {
-    for (let i = 0; i < logs.length; i++) logs[i] += logLikelihood(dict, i, where[k], r.value, options);
+    for (let i = 0; i < logs.length; i++) logs[i] += logLikelihood(rows, i, where[k], r.value, options);
   });
-  return normaliseLogs(logs);
+  const p = normaliseLogs(logs);
+  if (rows === dict) return { hypotheses: p, rows: p };
+  const folded = new Array<number>(dict.hypotheses.length).fill(0);
+  p.forEach((x, r) => (folded[parent[r]] += x));
+  return { hypotheses: folded, rows: p };
 }
 
 export function normaliseLogs(logs: number[]): number[] {

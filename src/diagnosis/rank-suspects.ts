@@ -1,10 +1,10 @@
 import type { Board } from '../schemas/board.js';
 import { ambiguityGroups } from './ambiguity.js';
 import { buildDictionary, type BuiltDictionary } from './dictionary.js';
-import type { Reading } from './dictionary-model.js';
+import { rowView, type Reading } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 import { nextProbe } from './next-probe.js';
-import { entropyBits, locateReadings, posterior } from './posterior.js';
+import { entropyBits, locateReadings, rowPosterior } from './posterior.js';
 import type { RankResult, Suspect, SuspectGroup } from './rank-result.js';
 import { explain } from './why.js';
 
@@ -45,7 +45,8 @@ export function rankSuspects(board: Board, readings: Reading[], options: RankOpt
       diskCache: options.diskCache,
     });
   const where = locateReadings(dict, readings);
-  const p = posterior(dict, readings, { meter });
+  const both = rowPosterior(dict, readings, { meter });
+  const p = both.hypotheses;
   const order = p.map((_, i) => i).sort((a, b) => p[b] - p[a]);
   const live = order.filter((i) => p[i] >= p[order[0]] * LIVE).slice(0, MAX_LIVE);
 
@@ -81,7 +82,8 @@ export function rankSuspects(board: Board, readings: Reading[], options: RankOpt
     }))
     .filter((g) => g.members.some((id) => shown.some((h) => dict.hypotheses[h].id === id)));
 
-  const next = nextProbe(dict, p, { meter, measured: new Set(where), currentCondition: readings.at(-1)?.condition });
+  // The look-ahead works on rows: where a probe's reading would land depends on which variant holds.
+  const next = nextProbe(rowView(dict).rows, both.rows, { meter, measured: new Set(where), currentCondition: readings.at(-1)?.condition });
   return { suspects, groups: groupList, ...(next ? { next } : {}), entropyBits: round(entropyBits(p)) };
 }
 

@@ -1,5 +1,5 @@
 import { formatValue } from '../units/index.js';
-import { NO_FAULT, spreadOf, toDomain, type FaultDictionary, type Reading } from './dictionary-model.js';
+import { NO_FAULT, spreadOf, toDomain, type FaultDictionary, type Hypothesis, type Reading } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
 /** A reading as a person sees it on the meter: volts to 3 figures, ohms, or OL past the top range. */
@@ -17,7 +17,7 @@ export function showReading(value: number, unit: 'V' | 'Ω', meter: MeterSpec = 
  * E.g. "TP6 would read 11.3 V with R21 open (healthy 5.90 V); you read 11.2 V".
  */
 export function explain(dict: FaultDictionary, h: number, readings: Reading[], where: number[], meter: MeterSpec = DEFAULT_METER, twins: string[] = []): string {
-  const hyp = dict.hypotheses[h];
+  const hyp = closestVariant(dict, dict.hypotheses[h], readings, where, meter);
   const conditions = new Set(readings.map((r) => r.condition));
   const label = (i: number) => {
     const o = dict.observables[i];
@@ -59,6 +59,27 @@ export function explain(dict: FaultDictionary, h: number, readings: Reading[], w
   }
   if (twins.length > 0) text += ` — no test point tells it from ${twins.slice(0, 3).join(', ')}${twins.length > 3 ? ` and ${twins.length - 3} more` : ''}`;
   return text;
+}
+
+/**
+ * A fault with variant predictions is explained by the one the readings fit best (summed distance in
+ * reaches), so the numbers quoted are the ones that put it where it is in the ranking.
+ */
+function closestVariant(dict: FaultDictionary, hyp: Hypothesis, readings: Reading[], where: number[], meter: MeterSpec): Hypothesis {
+  if (!hyp.variants || readings.length === 0) return hyp;
+  let best = hyp;
+  let bestMiss = Infinity;
+  for (const predictions of [hyp.predictions, ...hyp.variants]) {
+    const row = { ...hyp, predictions };
+    let miss = 0;
+    readings.forEach((r, k) => {
+      const obs = dict.observables[where[k]];
+      const s = spreadOf(obs, row, where[k], meter);
+      if (s) miss += Math.abs(toDomain(obs, r.value, meter) - s.centre) / s.reach;
+    });
+    if (miss < bestMiss) [best, bestMiss] = [row, miss];
+  }
+  return best;
 }
 
 function band(obs: FaultDictionary['observables'][number], meter: MeterSpec): string {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ambiguityGroups, distinguishable } from '../../src/diagnosis/ambiguity.js';
+import { ambiguityGroups, distinguishable, separable } from '../../src/diagnosis/ambiguity.js';
 import { hyp, obs } from './fixtures.js';
 
 describe('ambiguity groups', () => {
@@ -38,5 +38,28 @@ describe('ambiguity groups', () => {
     };
     const groups = ambiguityGroups(d, [0, 1, 2]);
     expect(groups.get(0)).not.toBe(groups.get(2));
+  });
+
+  it('groups a fault with another that one of its variants cannot be told from', () => {
+    // Invented numbers: a bridge that, depending on an offset's sign, reads like the output stuck high or low.
+    const d = {
+      observables: [obs('TP1', 5, 0.1), obs('TP2', 2, 0.1)],
+      hypotheses: [
+        hyp('none', [5, 2]),
+        { ...hyp('U1/bridge', [5, 0]), variants: [[11, 0], [-11, 0]] },
+        hyp('U1/stuck-high', [11, 0]),
+        hyp('U1/stuck-low', [-11, 0]),
+        hyp('R2/open', [11, 5]),
+      ],
+    };
+    // The headline's test goes by the nominal prediction alone; grouping looks at every variant.
+    expect(distinguishable(d, 1, 2)).toBe(true);
+    expect(separable(d, 1, 2)).toBe(false);
+    expect(separable(d, 1, 3)).toBe(false);
+    expect(separable(d, 1, 4)).toBe(true);
+    const groups = ambiguityGroups(d, [2, 1, 3, 4, 0]);
+    expect(groups.get(1)).toBe(groups.get(2));
+    expect(groups.get(3)).not.toBe(groups.get(2));
+    expect(new Set([groups.get(0), groups.get(2), groups.get(4)]).size).toBe(3);
   });
 });

@@ -50,6 +50,24 @@ describe('fault dictionary on the tiny board', () => {
     expect(h.predictions[i]).toBeGreaterThan(dict.observables[i].nominal);
   });
 
+  it('a bridge joining one amplifier’s inputs also predicts its offset at either end, and only such a bridge', () => {
+    // Common practice: an op-amp whose inputs are joined has only its own input offset left to amplify,
+    // open loop, so its output runs to the rail of the offset's sign; a TL072 swings to within about
+    // 1.5–2 V of its rails (from memory: TL072 datasheet, ±13.5 V typical at ±15 V supplies).
+    const h = dict.hypotheses.find((x) => x.id === 'U1/bridge/2-3')!;
+    expect(h.variants).toHaveLength(2);
+    const [plus, minus] = h.variants!;
+    const out = dict.observables.findIndex((o) => o.testPoint === 'TP2' && o.condition === 'quiescent');
+    expect(plus[out]).toBeGreaterThan(9);
+    expect(minus[out]).toBeLessThan(-9);
+    // No offset moves an ohmmeter reading of the unpowered board.
+    dict.observables.forEach((o, i) => {
+      if (o.condition === 'unpowered') for (const v of h.variants!) expect(v[i]).toBe(h.predictions[i]);
+    });
+    // Pins 3–4 join an input to a supply pin; a transistor's bridge or an open resistor leaves every amplifier's inputs apart.
+    for (const id of ['U1/bridge/3-4', 'Q1/bridge/E-B', 'R2/open']) expect(dict.hypotheses.find((x) => x.id === id)!.variants).toBeUndefined();
+  });
+
   it('is cached: the same board gives the same dictionary object', () => {
     expect(buildDictionary(tinyBoard())).toBe(dict);
   });
@@ -64,7 +82,8 @@ describe('dictionary kept on disk', () => {
     ],
     hypotheses: [
       { id: 'none', part: 'none', mode: 'none', fault: 'no fault', prior: 0.05, predictions: [5, 9000] },
-      { id: 'R1/open', part: 'R1', mode: 'open', fault: 'open', prior: 0.95, predictions: [NaN, Infinity] },
+      { id: 'R1/open', part: 'R1', mode: 'open', fault: 'open', prior: 0.5, predictions: [NaN, Infinity] },
+      { id: 'U1/bridge/2-3', part: 'U1', mode: 'bridge', fault: 'solder bridge', prior: 0.45, predictions: [0.1, 9000], variants: [[10.5, 9000], [NaN, Infinity]] },
     ],
     faults: [{ id: 'R1/open', part: 'R1', kind: 'resistor', mode: 'open', fault: 'open', prior: 2 }],
     unsettled: new Map([['R1/open', ['quiescent']]]),
@@ -79,6 +98,10 @@ describe('dictionary kept on disk', () => {
     expect(back.hypotheses[1].predictions[1]).toBe(Infinity);
     expect(back.unsettled.get('R1/open')).toEqual(['quiescent']);
     expect(back.observables).toEqual(hand.observables);
+    expect(back.hypotheses[2].variants![0]).toEqual([10.5, 9000]);
+    expect(back.hypotheses[2].variants![1][0]).toBeNaN();
+    expect(back.hypotheses[2].variants![1][1]).toBe(Infinity);
+    expect(back.hypotheses[1].variants).toBeUndefined();
   });
 
   it('a truncated or foreign file is ignored, not an error', () => {

@@ -77,6 +77,39 @@ describe('posterior over a hand-made dictionary', () => {
   });
 });
 
+describe('a fault with variant predictions', () => {
+  // Invented numbers: a bridge whose amplifier runs to either rail, and a fault that puts one test
+  // point at each rail at once.
+  const dict = {
+    observables: [obs('TP1', 5, 0.2), obs('TP2', 5, 0.2)],
+    hypotheses: [
+      hyp('none', [5, 5]),
+      { ...hyp('U1/bridge', [5.5, 5.5]), variants: [[11, 11], [-11, -11]] },
+      hyp('R9/short', [11, -11]),
+    ],
+  };
+  const read = (a: number, b: number) => posterior(dict, [
+    { testPoint: 'TP1', condition: 'quiescent', value: a },
+    { testPoint: 'TP2', condition: 'quiescent', value: b },
+  ]);
+
+  it('is found at either of its variants', () => {
+    expect(read(11, 11)[1]).toBeGreaterThan(0.99);
+    expect(read(-11, -11)[1]).toBeGreaterThan(0.99);
+  });
+
+  it('is weighed one variant at a time: a reading from each does not add up to a fit', () => {
+    const p = read(11, -11);
+    expect(p[2]).toBeGreaterThan(0.99);
+    expect(p.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12);
+  });
+
+  it('shares its prior among its variants: with no readings it weighs what its prior says', () => {
+    expect(read(5, 5).length).toBe(3);
+    expect(posterior(dict, [])[1]).toBeCloseTo(1 / 3, 12);
+  });
+});
+
 describe('entropy', () => {
   it('of a uniform distribution over N is log2 N (Shannon)', () => {
     fc.assert(
