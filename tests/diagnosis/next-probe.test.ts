@@ -12,8 +12,10 @@ describe('next-best probe (minimum expected entropy, de Kleer & Williams 1987)',
     expect(p[3] + p[4]).toBeGreaterThan(0.99);
     const next = nextProbe(dict, p, { measured: new Set([0]) });
     expect(next?.testPoint).toBe('TP3');
-    // Two equally likely candidates, separated for certain: one bit (Shannon).
-    expect(next?.expectedInformationBits).toBeCloseTo(1, 2);
+    // Two equally likely candidates, separated for certain: one bit (Shannon), plus the little the
+    // under 1 % still on the other hypotheses adds.
+    expect(next?.expectedInformationBits).toBeGreaterThanOrEqual(1);
+    expect(next?.expectedInformationBits).toBeLessThan(1.1);
   });
 
   it('an observable every hypothesis agrees on is worth nothing', () => {
