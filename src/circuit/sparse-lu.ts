@@ -51,6 +51,49 @@ export interface LuPlan {
   fill: Int32Array;
 }
 
+/**
+ * Working arrays of the planner, kept by an instance between plans (a circuit of n unknowns plans
+ * many times; allocating these each time cost more than the pivot search). Row and column lists
+ * are n slots each, as fill-in can grow a row to every column.
+ */
+interface PlanScratch {
+  rowIdx: Int32Array;
+  colIdx: Int32Array;
+  rowLen: Int32Array;
+  colLen: Int32Array;
+  rowActive: Uint8Array;
+  colActive: Uint8Array;
+  rowCnt: Int32Array;
+  colCnt: Int32Array;
+  colValid: Uint8Array;
+  colBestR: Int32Array;
+  colBestCost: Float64Array;
+  colBestRatio: Float64Array;
+  lBuf: Int32Array;
+  uBuf: Int32Array;
+  fillBuf: Int32Array;
+}
+
+function planScratch(n: number): PlanScratch {
+  return {
+    rowIdx: new Int32Array(n * n),
+    colIdx: new Int32Array(n * n),
+    rowLen: new Int32Array(n),
+    colLen: new Int32Array(n),
+    rowActive: new Uint8Array(n),
+    colActive: new Uint8Array(n),
+    rowCnt: new Int32Array(n),
+    colCnt: new Int32Array(n),
+    colValid: new Uint8Array(n),
+    colBestR: new Int32Array(n),
+    colBestCost: new Float64Array(n),
+    colBestRatio: new Float64Array(n),
+    lBuf: new Int32Array(n * n),
+    uBuf: new Int32Array(n * n),
+    fillBuf: new Int32Array(n * n),
+  };
+}
+
 /** Moves (or adds) a plan to the front of a most-recent-first list of at most `limit`. */
 function remember(list: LuPlan[], plan: LuPlan, limit: number): void {
   const at = list.indexOf(plan);
@@ -170,6 +213,9 @@ export class SparseLu {
     return true;
   }
 
+  /** Planning scratch, made on the first plan: see PlanScratch. */
+  private scratch: PlanScratch | null = null;
+
   private plan(a: Float64Array): LuPlan {
     const n = this.n;
     const w = this.w;
@@ -177,46 +223,42 @@ export class SparseLu {
     this.weak = false;
     const s = this.mark;
     s.set(this.pattern);
-    const rowCols: number[][] = [];
-    const colRows: number[][] = [];
-    for (let i = 0; i < n; i++) {
-      rowCols.push([]);
-      colRows.push([]);
-    }
-    for (const k of this.positions) {
-      const i = Math.floor(k / n);
+    const sc = (this.scratch ??= planScratch(n));
+    const { rowIdx, colIdx, rowLen, colLen, rowActive, colActive, rowCnt, colCnt, colValid, colBestR, colBestCost, colBestRatio, lBuf, uBuf, fillBuf } = sc;
+    // Row i's columns are rowIdx[i·n …], column j's rows colIdx[j·n …], in pattern order with
+    // fill-in appended: the order the tie-breaks below depend on.
+    rowLen.fill(0);
+    colLen.fill(0);
+    const positions = this.positions;
+    for (let t = 0; t < positions.length; t++) {
+      const k = positions[t];
+      const i = (k / n) | 0;
       const j = k - i * n;
-      rowCols[i].push(j);
-      colRows[j].push(i);
+      rowIdx[i * n + rowLen[i]++] = j;
+      colIdx[j * n + colLen[j]++] = i;
     }
-    const rowActive = new Uint8Array(n).fill(1);
-    const colActive = new Uint8Array(n).fill(1);
-    const rowCnt = new Int32Array(n);
-    const colCnt = new Int32Array(n);
-    for (let i = 0; i < n; i++) {
-      rowCnt[i] = rowCols[i].length;
-      colCnt[i] = colRows[i].length;
-    }
+    rowActive.fill(1);
+    colActive.fill(1);
+    rowCnt.set(rowLen);
+    colCnt.set(colLen);
+    colValid.fill(0);
     const pr = new Int32Array(n);
     const pc = new Int32Array(n);
     const lStart = new Int32Array(n + 1);
     const uStart = new Int32Array(n + 1);
-    const lList: number[] = [];
-    const uList: number[] = [];
-    const fill: number[] = [];
+    let lEnd = 0;
+    let uEnd = 0;
+    let fillEnd = 0;
 
     // Each column's own best candidate (fewest updates, then largest pivot relative to the column,
     // then first in the column's list), kept until an elimination step touches the column. The
     // overall choice is the same as comparing every candidate in column order.
-    const colValid = new Uint8Array(n);
-    const colBestR = new Int32Array(n);
-    const colBestCost = new Float64Array(n);
-    const colBestRatio = new Float64Array(n);
     const scoreColumn = (c: number) => {
-      const rows = colRows[c];
+      const base = c * n;
+      const len = colLen[c];
       let colMax = 0;
-      for (let t = 0; t < rows.length; t++) {
-        const r = rows[t];
+      for (let t = 0; t < len; t++) {
+        const r = colIdx[base + t];
         if (!rowActive[r]) continue;
         const v = Math.abs(w[r * n + c]);
         if (v > colMax) colMax = v;
@@ -226,8 +268,8 @@ export class SparseLu {
       let bestRatio = 0;
       if (colMax > ABSOLUTE_PIVOT) {
         const colCost = colCnt[c] - 1;
-        for (let t = 0; t < rows.length; t++) {
-          const r = rows[t];
+        for (let t = 0; t < len; t++) {
+          const r = colIdx[base + t];
           if (!rowActive[r]) continue;
           const cost = (rowCnt[r] - 1) * colCost;
           if (cost > bestCost) continue;
@@ -279,44 +321,56 @@ export class SparseLu {
       pc[k] = c;
       rowActive[r] = 0;
       colActive[c] = 0;
-      for (const cc of rowCols[r]) colCnt[cc]--;
-      for (const rr of colRows[c]) rowCnt[rr]--;
-      lStart[k] = lList.length;
-      uStart[k] = uList.length;
-      const lRowsK: number[] = [];
-      const uColsK: number[] = [];
-      for (const rr of colRows[c]) if (rowActive[rr]) lRowsK.push(rr);
-      for (const cc of rowCols[r]) if (colActive[cc]) uColsK.push(cc);
-      for (const v of lRowsK) lList.push(v);
-      for (const v of uColsK) uList.push(v);
-      const piv = w[r * n + c];
-      for (const rr of lRowsK) {
+      const rBase = r * n;
+      const cBase = c * n;
+      for (let t = 0; t < rowLen[r]; t++) colCnt[rowIdx[rBase + t]]--;
+      for (let t = 0; t < colLen[c]; t++) rowCnt[colIdx[cBase + t]]--;
+      lStart[k] = lEnd;
+      uStart[k] = uEnd;
+      for (let t = 0; t < colLen[c]; t++) {
+        const rr = colIdx[cBase + t];
+        if (rowActive[rr]) lBuf[lEnd++] = rr;
+      }
+      for (let t = 0; t < rowLen[r]; t++) {
+        const cc = rowIdx[rBase + t];
+        if (colActive[cc]) uBuf[uEnd++] = cc;
+      }
+      const l0 = lStart[k];
+      const u0 = uStart[k];
+      const piv = w[rBase + c];
+      for (let q = l0; q < lEnd; q++) {
+        const rr = lBuf[q];
         const base = rr * n;
         const f = w[base + c] / piv;
         w[base + c] = f;
-        for (const cc of uColsK) {
+        for (let p = u0; p < uEnd; p++) {
+          const cc = uBuf[p];
           const k2 = base + cc;
           if (!s[k2]) {
             s[k2] = 1;
             w[k2] = 0;
-            fill.push(k2);
-            rowCols[rr].push(cc);
-            colRows[cc].push(rr);
+            fillBuf[fillEnd++] = k2;
+            rowIdx[base + rowLen[rr]++] = cc;
+            colIdx[cc * n + colLen[cc]++] = rr;
             rowCnt[rr]++;
             colCnt[cc]++;
           }
-          w[k2] -= f * w[r * n + cc];
+          w[k2] -= f * w[rBase + cc];
         }
       }
       // Rescore what this step changed: the updated columns (values, counts, the pivot row gone)
       // and every column holding an updated row (that row's count changed).
-      for (const cc of uColsK) colValid[cc] = 0;
-      for (const rr of lRowsK) for (const cc of rowCols[rr]) colValid[cc] = 0;
+      for (let p = u0; p < uEnd; p++) colValid[uBuf[p]] = 0;
+      for (let q = l0; q < lEnd; q++) {
+        const rr = lBuf[q];
+        const base = rr * n;
+        for (let t = 0; t < rowLen[rr]; t++) colValid[rowIdx[base + t]] = 0;
+      }
     }
-    lStart[n] = lList.length;
-    uStart[n] = uList.length;
+    lStart[n] = lEnd;
+    uStart[n] = uEnd;
     this.plansMade++;
-    return { pr, pc, lStart, uStart, lRows: Int32Array.from(lList), uCols: Int32Array.from(uList), fill: Int32Array.from(fill) };
+    return { pr, pc, lStart, uStart, lRows: lBuf.slice(0, lEnd), uCols: uBuf.slice(0, uEnd), fill: fillBuf.slice(0, fillEnd) };
   }
 
   /** Solves with the last factorisation: x[unknown] from b[row]. */
