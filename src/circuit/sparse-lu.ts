@@ -23,11 +23,11 @@ const PIVOT_THRESHOLD = 1e-3;
  * saturation and back) instead of being planned again. Safe because no answer rests on one
  * factorisation alone: Newton only stops when its step is small and KCL holds with the devices'
  * true currents, so a less accurate step costs iterations, never a wrong operating point. Building
- * the demo board's fault dictionary with 1e-3, 1e-6, 1e-7, 1e-8 and 1e-9 here: 72.6k, 37.1k, 26.1k,
- * 12.9k and 8.5k plans for 314k, 320k, 334k, 341k and 450k factorisations; faulty circuits not
- * settled: 46, —, 23, 92, — of 163k predictions. 1e-7 made a third of the plans for 6 % more
- * factorisations, and settled the most. Digits a small pivot costs are won back in solve() by one
- * step of iterative refinement.
+ * the demo board's fault dictionary (with plans then shared between solvers of one pattern) with
+ * 1e-3, 1e-6, 1e-7, 1e-8 and 1e-9: 72.6k, 37.1k, 26.1k, 12.9k and 8.5k plans for 314k, 320k,
+ * 334k, 341k and 450k factorisations; predictions lost to faulty circuits that did not settle: 46,
+ * —, 23, 92, — of 163k. 1e-7 made a third of the plans for 6 % more factorisations, and settled
+ * the most. Digits a small pivot costs are won back in solve() by one step of iterative refinement.
  */
 const REPLAY_THRESHOLD = 1e-7;
 const ABSOLUTE_PIVOT = 1e-300;
@@ -54,7 +54,8 @@ export interface LuPlan {
 /**
  * Working arrays of the planner, kept by an instance between plans (a circuit of n unknowns plans
  * many times; allocating these each time cost more than the pivot search). Row and column lists
- * are n slots each, as fill-in can grow a row to every column.
+ * are n slots each, as fill-in can grow a row to every column; the L, U and fill lists start at a
+ * few times the pattern's size and double when a plan needs more.
  */
 interface PlanScratch {
   rowIdx: Int32Array;
@@ -74,7 +75,8 @@ interface PlanScratch {
   fillBuf: Int32Array;
 }
 
-function planScratch(n: number): PlanScratch {
+function planScratch(n: number, nonzeros: number): PlanScratch {
+  const list = Math.min(n * n, 4 * nonzeros + n);
   return {
     rowIdx: new Int32Array(n * n),
     colIdx: new Int32Array(n * n),
@@ -88,10 +90,18 @@ function planScratch(n: number): PlanScratch {
     colBestR: new Int32Array(n),
     colBestCost: new Float64Array(n),
     colBestRatio: new Float64Array(n),
-    lBuf: new Int32Array(n * n),
-    uBuf: new Int32Array(n * n),
-    fillBuf: new Int32Array(n * n),
+    lBuf: new Int32Array(list),
+    uBuf: new Int32Array(list),
+    fillBuf: new Int32Array(list),
   };
+}
+
+/** `buffer` itself if it holds `needed` entries, else a copy twice as large (at least `needed`). */
+function room(buffer: Int32Array, needed: number): Int32Array {
+  if (needed <= buffer.length) return buffer;
+  const grown = new Int32Array(Math.max(needed, 2 * buffer.length));
+  grown.set(buffer);
+  return grown;
 }
 
 /** Moves (or adds) a plan to the front of a most-recent-first list of at most `limit`. */
@@ -223,8 +233,9 @@ export class SparseLu {
     this.weak = false;
     const s = this.mark;
     s.set(this.pattern);
-    const sc = (this.scratch ??= planScratch(n));
-    const { rowIdx, colIdx, rowLen, colLen, rowActive, colActive, rowCnt, colCnt, colValid, colBestR, colBestCost, colBestRatio, lBuf, uBuf, fillBuf } = sc;
+    const sc = (this.scratch ??= planScratch(n, this.positions.length));
+    const { rowIdx, colIdx, rowLen, colLen, rowActive, colActive, rowCnt, colCnt, colValid, colBestR, colBestCost, colBestRatio } = sc;
+    let { lBuf, uBuf, fillBuf } = sc;
     // Row i's columns are rowIdx[i·n …], column j's rows colIdx[j·n …], in pattern order with
     // fill-in appended: the order the tie-breaks below depend on.
     rowLen.fill(0);
@@ -327,6 +338,8 @@ export class SparseLu {
       for (let t = 0; t < colLen[c]; t++) rowCnt[colIdx[cBase + t]]--;
       lStart[k] = lEnd;
       uStart[k] = uEnd;
+      lBuf = sc.lBuf = room(lBuf, lEnd + colLen[c]);
+      uBuf = sc.uBuf = room(uBuf, uEnd + rowLen[r]);
       for (let t = 0; t < colLen[c]; t++) {
         const rr = colIdx[cBase + t];
         if (rowActive[rr]) lBuf[lEnd++] = rr;
@@ -338,6 +351,7 @@ export class SparseLu {
       const l0 = lStart[k];
       const u0 = uStart[k];
       const piv = w[rBase + c];
+      fillBuf = sc.fillBuf = room(fillBuf, fillEnd + (lEnd - l0) * (uEnd - u0));
       for (let q = l0; q < lEnd; q++) {
         const rr = lBuf[q];
         const base = rr * n;

@@ -14,8 +14,9 @@ import type { LuPlan } from '../sparse-lu.js';
  * sample only writes the deviated values (element values, one part's model parameters, op-amp
  * offsets) into the compiled devices, then solves warm-started from near the nominal solution of
  * that circuit (never from the previous sample's, and with the solver's pivot plans put back as
- * they were, so a sample's result does not depend on the order samples are drawn in). Samples use the solver's lean solve: the same
- * convergence test, but only the node voltages the readings need are read out of it.
+ * they were, so a sample's result does not depend on the order samples are drawn in). Samples use
+ * the solver's lean solve: the same convergence test, but only the node voltages the readings need
+ * are read out of it.
  */
 
 export interface BoardOutput {
