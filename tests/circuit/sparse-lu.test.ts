@@ -124,8 +124,7 @@ describe('SparseLu', () => {
     }
     // Threshold pivoting (any pivot within 1e-3 of its column's largest: SPICE's sparse solver's
     // default relative threshold, from memory) trades digits for less fill: here the residual is
-    // ≈6e-11 against dense LU's 1e-15,
-    // far below the solver's 1 µV / 1 pA tolerances.
+    // ≈6e-11 against dense LU's 1e-15, far below the solver's 1 µV / 1 pA tolerances.
     expect(worst).toBeLessThan(1e-9);
   });
 
