@@ -4,19 +4,10 @@
  * becomes too small). Real and imaginary parts are kept in separate dense row-major arrays.
  */
 import { SingularMatrixError } from './errors.js';
+import type { LuPlan as Plan } from './sparse-lu.js';
 
 const PIVOT_THRESHOLD = 1e-3;
 const ABSOLUTE_PIVOT = 1e-300;
-
-interface Plan {
-  pr: Int32Array;
-  pc: Int32Array;
-  lStart: Int32Array;
-  lRows: Int32Array;
-  uStart: Int32Array;
-  uCols: Int32Array;
-  fill: Int32Array;
-}
 
 export class ComplexSparseLu {
   readonly n: number;

@@ -104,6 +104,9 @@ function room(buffer: Int32Array, needed: number): Int32Array {
   return grown;
 }
 
+/** A fresh plan starts from the pattern alone: no fill-in positions to clear. */
+const NO_FILL = new Int32Array(0);
+
 /** Moves (or adds) a plan to the front of a most-recent-first list of at most `limit`. */
 function remember(list: LuPlan[], plan: LuPlan, limit: number): void {
   const at = list.indexOf(plan);
@@ -229,7 +232,7 @@ export class SparseLu {
   private plan(a: Float64Array): LuPlan {
     const n = this.n;
     const w = this.w;
-    this.load(a, new Int32Array(0));
+    this.load(a, NO_FILL);
     this.weak = false;
     const s = this.mark;
     s.set(this.pattern);
