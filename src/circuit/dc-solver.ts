@@ -204,8 +204,22 @@ export function createDcSolver(circuit: Circuit): DcSolver {
     return finish(opts, strategy, iterations);
   }
 
+  // Inner loops hand the same options object to every solveLean; resolving (and checking) it once
+  // per object, not per call, matters when a solve is two Newton iterations. Only an object seen
+  // before with the same fields (other than `start`) reuses the last resolution.
+  let lastGiven: LeanDcOptions | null = null;
+  let lastCopy: LeanDcOptions = {};
+  let lastResolved: ResolvedDcOptions | null = null;
+  function resolveLean(options: LeanDcOptions): ResolvedDcOptions {
+    if (options === lastGiven && lastResolved && sameOptions(options, lastCopy)) return lastResolved;
+    lastResolved = resolveDcOptions(options);
+    lastGiven = options;
+    lastCopy = { ...options, skip: options.skip ? [...options.skip] : undefined };
+    return lastResolved;
+  }
+
   function solveLean(options: LeanDcOptions = {}): LeanDcResult {
-    const opts = resolveDcOptions(options);
+    const opts = resolveLean(options);
     const given = options.start;
     if (given) {
       if (given.length !== n) throw new RangeError(`start has ${given.length} unknowns, the circuit ${n}`);
@@ -251,6 +265,19 @@ export function createDcSolver(circuit: Circuit): DcSolver {
 
   return { compiled: cc, engine, solve, solveLean, setValue, setValues, valueSetter, canSet, x };
 }
+
+function sameOptions(a: LeanDcOptions, b: LeanDcOptions): boolean {
+  for (const key of OPTION_FIELDS) if (a[key] !== b[key]) return false;
+  const sa = a.skip ?? [];
+  const sb = b.skip ?? [];
+  return sa.length === sb.length && sa.every((v, i) => v === sb[i]);
+}
+
+// Written as a record so that a new numeric option fails to compile until it is listed here.
+const OPTION_FIELD_SET = {
+  reltol: true, vntol: true, abstol: true, gmin: true, gshunt: true, maxIterations: true, maxGminSteps: true, maxSourceSteps: true,
+} as const satisfies Record<Exclude<keyof ResolvedDcOptions, 'skip'>, true>;
+const OPTION_FIELDS = Object.keys(OPTION_FIELD_SET) as Array<keyof typeof OPTION_FIELD_SET>;
 
 /** One DC operating point. For many solves of one circuit, keep a createDcSolver instead. */
 export function solveDC(circuit: Circuit, options?: DcOptions): DcSolution {

@@ -130,6 +130,17 @@ describe('setValue on a compiled circuit', () => {
     expect(() => diode.setValue('d1', 'RS', 2)).toThrow(UserInputError);
     expect(() => diode.setValue('d1', 'CJO', 1e-12)).toThrow(/CJO/);
     expect(() => diode.setValue('d1', 'IS', 0)).toThrow(UserInputError);
+
+    const amp = createDcSolver(circuit([V('vp', 'vcc', '0', 12), V('vn', 'vee', '0', -12), OPAMP('u1', '0', 'out', 'out', 'vcc', 'vee'), R('rl', 'out', '0', 10e3)]));
+    const healthy = amp.solve(EXACT).nodes.out;
+    expect(() => amp.setValue('u1', 'gain', 0)).toThrow(/params\.gain of u1/);
+    expect(() => amp.setValue('u1', 'headroom', -1)).toThrow(UserInputError);
+    expect(() => amp.setValue('u1', 'vos', Infinity)).toThrow(/params\.vos of u1/);
+    expect(() => amp.setValue('u1', 'bias', 1)).toThrow(/bias of u1/);
+    expect(amp.solve(EXACT).nodes.out).toBe(healthy);
+    // An ideal input (rin = ∞) is accepted in place as at compile time.
+    amp.setValue('u1', 'rin', Infinity);
+    expect(amp.solve(EXACT).nodes.out).toBeCloseTo(healthy, 12);
   });
 });
 
@@ -157,5 +168,19 @@ describe('solveLean', () => {
     // Inverting amplifier, −Rf/Ri·vin with the diode's load on the output (textbook, ideal op-amp).
     expect(solver.x[solver.compiled.nodeIndex.get('out')!]).toBeCloseTo(-0.3 * (56e3 / 10e3), 3);
     expect(() => solver.solveLean({ start: new Float64Array(2) })).toThrow(RangeError);
+  });
+
+  it('an options object handed in again is read again: a field changed in it takes effect', () => {
+    const model: Model = { name: 'dx', type: 'D', params: { IS: 1e-14 } };
+    const solver = createDcSolver(circuit([V('v1', 'in', '0', 5), R('r1', 'in', 'a', 1e3), D('d1', 'a', '0', 'dx')], [model]));
+    const options: { maxIterations: number; skip: Array<'gmin' | 'source'> } = { maxIterations: 1, skip: ['gmin', 'source'] };
+    // One Newton iteration from zero cannot settle a diode (it needs a step and a check).
+    expect(() => solver.solveLean(options)).toThrow(/iteration limit/);
+    options.maxIterations = 100;
+    expect(solver.solveLean(options).strategy).toBe('newton');
+    options.maxIterations = 1;
+    options.skip.pop();
+    // Source stepping now allowed: the solve gets further than plain Newton's one iteration.
+    expect(() => solver.solveLean(options)).toThrow(/source stepping/);
   });
 });

@@ -39,17 +39,36 @@ type OpAmpLaw = Omit<OpAmpParams, 'en' | 'in'>;
 /** The law's values, each of which can be changed in place on a compiled op-amp. */
 const LAW_FIELDS: readonly string[] = ['gain', 'rout', 'rin', 'headroom', 'iq', 'vos'];
 
+/** Each law field checked as a compiled value: the field's lower bound, and whether it is strict. */
+const LAW_CHECKS: Record<keyof OpAmpLaw, { min: number; strict: boolean }> = {
+  gain: { min: 0, strict: true },
+  rout: { min: 0, strict: true },
+  rin: { min: 0, strict: true },
+  headroom: { min: 0, strict: false },
+  iq: { min: 0, strict: false },
+  vos: { min: -Infinity, strict: false },
+};
+
+function checkedLawValue(element: string, field: keyof OpAmpLaw, value: unknown): number {
+  // An ideal input (rin = ∞) is the one non-finite value the law accepts.
+  if (field === 'rin' && value === Infinity) return Infinity;
+  const { min, strict } = LAW_CHECKS[field];
+  return requireNumber(element, `params.${field}`, value, min, strict);
+}
+
 function opampLaw(el: OpAmp): OpAmpLaw {
   const p = el.params;
   return {
-    gain: requireNumber(el.name, 'params.gain', p.gain, 0, true),
-    rout: requireNumber(el.name, 'params.rout', p.rout, 0, true),
-    rin: p.rin === Infinity ? Infinity : requireNumber(el.name, 'params.rin', p.rin, 0, true),
-    headroom: requireNumber(el.name, 'params.headroom', p.headroom, 0),
-    iq: requireNumber(el.name, 'params.iq', p.iq, 0),
-    vos: requireNumber(el.name, 'params.vos', p.vos),
+    gain: checkedLawValue(el.name, 'gain', p.gain),
+    rout: checkedLawValue(el.name, 'rout', p.rout),
+    rin: checkedLawValue(el.name, 'rin', p.rin),
+    headroom: checkedLawValue(el.name, 'headroom', p.headroom),
+    iq: checkedLawValue(el.name, 'iq', p.iq),
+    vos: checkedLawValue(el.name, 'vos', p.vos),
   };
 }
+
+const isLawField = (field: string): field is keyof OpAmpLaw => LAW_FIELDS.includes(field);
 
 /** Output of the law and its partial derivatives with respect to in+, in−, V+, V−. */
 export interface OpAmpPoint {
@@ -83,8 +102,8 @@ export function opampOutput(law: OpAmpLaw, vinp: number, vinn: number, vvp: numb
 }
 
 export function createOpAmp(el: OpAmp, alloc: Allocator): Device {
-  let params: OpAmp['params'] = el.params;
-  let law = opampLaw(el);
+  // This device's own copy, changed in place by set() (tolerance loops set values per sample).
+  const law = opampLaw(el);
   const [inp, inn, out, vp, vn] = el.nodes.map((n) => alloc.node(n));
   let gout = 1 / law.rout;
   let gin = law.rin === Infinity ? 0 : 1 / law.rin;
@@ -112,10 +131,8 @@ export function createOpAmp(el: OpAmp, alloc: Allocator): Device {
     element: el,
     settable: LAW_FIELDS,
     set(field: string, value: number): void {
-      if (!LAW_FIELDS.includes(field)) throw badValue(el.name, 'field', field, LAW_FIELDS.map((f) => `"${f}"`).join(', '));
-      const next = { ...params, [field]: value };
-      law = opampLaw({ ...el, params: next });
-      params = next;
+      if (!isLawField(field)) throw badValue(el.name, 'field', field, LAW_FIELDS.map((f) => `"${f}"`).join(', '));
+      law[field] = checkedLawValue(el.name, field, value);
       gout = 1 / law.rout;
       gin = law.rin === Infinity ? 0 : 1 / law.rin;
     },
