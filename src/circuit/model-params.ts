@@ -86,10 +86,11 @@ export function settableParams(spec: ParamSpec): string[] {
 }
 
 /**
- * A device's resolved parameters (readModelParams' result) with one replaced, checked as a card's
- * value would be: the name, in any case or alias spelling, must be one the device reads at DC.
+ * Checks one parameter change as a card's value would be checked: the name, in any case or alias
+ * spelling, must be one the device reads at DC, and the value a finite number. Returns the
+ * canonical name, under which the device's resolved parameters (readModelParams' result) hold it.
  */
-export function withParam(params: Record<string, number>, spec: ParamSpec, element: string, name: string, value: number): Record<string, number> {
+function paramToSet(spec: ParamSpec, element: string, name: string, value: number): string {
   const upper = name.toUpperCase();
   const canonical = spec.aliases?.[upper] ?? upper;
   if (!(canonical in spec.defaults)) {
@@ -108,5 +109,22 @@ export function withParam(params: Record<string, number>, spec: ParamSpec, eleme
       accepted: 'a finite number',
     });
   }
-  return { ...params, [canonical]: value };
+  return canonical;
+}
+
+/**
+ * Sets one checked parameter in a device's own resolved parameters and derives the device's law
+ * from them; if the law refuses the value, the parameter is put back and the error thrown. In
+ * place rather than copied: tolerance loops set parameters once per sample.
+ */
+export function setParam<T>(params: Record<string, number>, spec: ParamSpec, element: string, name: string, value: number, derive: () => T): T {
+  const canonical = paramToSet(spec, element, name, value);
+  const old = params[canonical];
+  params[canonical] = value;
+  try {
+    return derive();
+  } catch (error) {
+    params[canonical] = old;
+    throw error;
+  }
 }

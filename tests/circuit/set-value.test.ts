@@ -126,10 +126,13 @@ describe('setValue on a compiled circuit', () => {
 
     const model: Model = { name: 'dx', type: 'D', params: { IS: 1e-14 } };
     const diode = createDcSolver(circuit([I('i1', '0', 'a', 1e-3), D('d1', 'a', '0', 'dx')], [model]));
+    const forward = diode.solve(EXACT).nodes.a;
     // RS = 0 compiles without an internal node; a series resistance cannot appear in place.
     expect(() => diode.setValue('d1', 'RS', 2)).toThrow(UserInputError);
     expect(() => diode.setValue('d1', 'CJO', 1e-12)).toThrow(/CJO/);
     expect(() => diode.setValue('d1', 'IS', 0)).toThrow(UserInputError);
+    // A refused value leaves the part as it was (RS was put back to 0, IS to 1e-14).
+    expect(diode.solve(EXACT).nodes.a).toBe(forward);
 
     const amp = createDcSolver(circuit([V('vp', 'vcc', '0', 12), V('vn', 'vee', '0', -12), OPAMP('u1', '0', 'out', 'out', 'vcc', 'vee'), R('rl', 'out', '0', 10e3)]));
     const healthy = amp.solve(EXACT).nodes.out;

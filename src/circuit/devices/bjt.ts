@@ -15,7 +15,7 @@
 import type { Bjt, Circuit, Model } from '../netlist.js';
 import type { Allocator, Device, JunctionRegion, StampContext } from './device.js';
 import type { Stamper } from '../stamper.js';
-import { findModel, readModelParams, settableParams, withParam, type ParamSpec } from '../model-params.js';
+import { findModel, readModelParams, settableParams, setParam, type ParamSpec } from '../model-params.js';
 import { criticalVoltage, junction, limitJunction } from '../junction.js';
 import { badValue, requireNumber } from '../check-values.js';
 import { NOMINAL_TEMPERATURE_C, thermalVoltage } from '../constants.js';
@@ -138,7 +138,8 @@ export function gummelPoon(m: GpParams, vbe: number, vbc: number, vt: number, gm
 export function createBjt(el: Bjt, alloc: Allocator, circuit: Circuit): Device {
   const model = findModel(circuit, el.name, el.model, ['NPN', 'PNP']);
   const temperatureC = circuit.temperatureC ?? NOMINAL_TEMPERATURE_C;
-  let params = readModelParams(model, BJT_PARAMS, temperatureC, alloc.warn);
+  // This device's own copy, changed in place by set().
+  const params = readModelParams(model, BJT_PARAMS, temperatureC, alloc.warn);
   let m = gpParamsOf(params, model, el);
   let vcrit = criticalVoltage(m.is, thermalVoltage(temperatureC));
   const c = alloc.node(el.nodes[0]);
@@ -167,14 +168,14 @@ export function createBjt(el: Bjt, alloc: Allocator, circuit: Circuit): Device {
     element: el,
     settable: settableParams(BJT_PARAMS),
     set(field: string, value: number): void {
-      const next = withParam(params, BJT_PARAMS, el.name, field, value);
-      const p = gpParamsOf(next, model, el);
-      // Internal nodes exist only for nonzero RC, RB and RE; the compiled layout cannot change.
-      if (p.rc > 0 !== m.rc > 0 || p.re > 0 !== m.re > 0 || p.rbMin + p.rbExtra > 0 !== m.rbMin + m.rbExtra > 0) {
-        throw badValue(el.name, field, value, 'a value keeping each of RB, RE and RC zero or nonzero as compiled');
-      }
-      params = next;
-      m = p;
+      m = setParam(params, BJT_PARAMS, el.name, field, value, () => {
+        const p = gpParamsOf(params, model, el);
+        // Internal nodes exist only for nonzero RC, RB and RE; the compiled layout cannot change.
+        if (p.rc > 0 !== m.rc > 0 || p.re > 0 !== m.re > 0 || p.rbMin + p.rbExtra > 0 !== m.rbMin + m.rbExtra > 0) {
+          throw badValue(el.name, field, value, 'a value keeping each of RB, RE and RC zero or nonzero as compiled');
+        }
+        return p;
+      });
       vcrit = criticalVoltage(m.is, thermalVoltage(temperatureC));
       gc = m.rc > 0 ? 1 / m.rc : 0;
       ge = m.re > 0 ? 1 / m.re : 0;

@@ -8,7 +8,7 @@
 import type { Circuit, Diode, Model } from '../netlist.js';
 import type { Allocator, Device, JunctionRegion, StampContext } from './device.js';
 import type { Stamper } from '../stamper.js';
-import { findModel, readModelParams, settableParams, withParam, type ParamSpec } from '../model-params.js';
+import { findModel, readModelParams, settableParams, setParam, type ParamSpec } from '../model-params.js';
 import { criticalVoltage, junction, limitJunction, safeExp } from '../junction.js';
 import { badValue, requireNumber } from '../check-values.js';
 import { NOMINAL_TEMPERATURE_C, thermalVoltage } from '../constants.js';
@@ -85,7 +85,8 @@ function lawOfParams(p: Record<string, number>, modelName: string, el: Diode, te
 export function createDiode(el: Diode, alloc: Allocator, circuit: Circuit): Device {
   const model = findModel(circuit, el.name, el.model, ['D']);
   const temperatureC = circuit.temperatureC ?? NOMINAL_TEMPERATURE_C;
-  let params = readModelParams(model, DIODE_PARAMS, temperatureC, alloc.warn);
+  // This device's own copy, changed in place by set().
+  const params = readModelParams(model, DIODE_PARAMS, temperatureC, alloc.warn);
   let law = lawOfParams(params, model.name, el, temperatureC);
   const anode = alloc.node(el.nodes[0]);
   const cathode = alloc.node(el.nodes[1]);
@@ -102,12 +103,12 @@ export function createDiode(el: Diode, alloc: Allocator, circuit: Circuit): Devi
     element: el,
     settable: settableParams(DIODE_PARAMS),
     set(field: string, value: number): void {
-      const next = withParam(params, DIODE_PARAMS, el.name, field, value);
-      const nextLaw = lawOfParams(next, model.name, el, temperatureC);
-      // RS = 0 has no internal node; the compiled layout cannot gain or lose one.
-      if (nextLaw.rs > 0 !== law.rs > 0) throw badValue(el.name, field, value, `a value keeping RS ${law.rs > 0 ? '> 0' : '= 0'} on this compiled circuit`);
-      params = next;
-      law = nextLaw;
+      law = setParam(params, DIODE_PARAMS, el.name, field, value, () => {
+        const nextLaw = lawOfParams(params, model.name, el, temperatureC);
+        // RS = 0 has no internal node; the compiled layout cannot gain or lose one.
+        if (nextLaw.rs > 0 !== law.rs > 0) throw badValue(el.name, field, value, `a value keeping RS ${law.rs > 0 ? '> 0' : '= 0'} on this compiled circuit`);
+        return nextLaw;
+      });
       grs = law.rs > 0 ? 1 / law.rs : 0;
       breakdownLimitBelow = Math.min(0, -law.bv + 10 * law.nvt);
     },
