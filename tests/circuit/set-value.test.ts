@@ -131,7 +131,8 @@ describe('setValue on a compiled circuit', () => {
     expect(() => diode.setValue('d1', 'RS', 2)).toThrow(UserInputError);
     expect(() => diode.setValue('d1', 'CJO', 1e-12)).toThrow(/CJO/);
     expect(() => diode.setValue('d1', 'IS', 0)).toThrow(UserInputError);
-    // A refused value leaves the part as it was (RS was put back to 0, IS to 1e-14).
+    // A refused value leaves the part as it was: the next change starts from RS = 0 and IS = 1e-14.
+    diode.setValue('d1', 'N', 1);
     expect(diode.solve(EXACT).nodes.a).toBe(forward);
 
     const amp = createDcSolver(circuit([V('vp', 'vcc', '0', 12), V('vn', 'vee', '0', -12), OPAMP('u1', '0', 'out', 'out', 'vcc', 'vee'), R('rl', 'out', '0', 10e3)]));
