@@ -73,6 +73,10 @@ interface PlanScratch {
   lBuf: Int32Array;
   uBuf: Int32Array;
   fillBuf: Int32Array;
+  pr: Int32Array;
+  pc: Int32Array;
+  lStart: Int32Array;
+  uStart: Int32Array;
 }
 
 function planScratch(n: number, nonzeros: number): PlanScratch {
@@ -93,6 +97,10 @@ function planScratch(n: number, nonzeros: number): PlanScratch {
     lBuf: new Int32Array(list),
     uBuf: new Int32Array(list),
     fillBuf: new Int32Array(list),
+    pr: new Int32Array(n),
+    pc: new Int32Array(n),
+    lStart: new Int32Array(n + 1),
+    uStart: new Int32Array(n + 1),
   };
 }
 
@@ -102,6 +110,24 @@ function room(buffer: Int32Array, needed: number): Int32Array {
   const grown = new Int32Array(Math.max(needed, 2 * buffer.length));
   grown.set(buffer);
   return grown;
+}
+
+/**
+ * A plan's seven lists copied out of the planning scratch into one buffer: a circuit plans tens of
+ * thousands of times in a fault dictionary, and seven allocations cost a third of a plan.
+ */
+function packPlan(...lists: Int32Array[]): LuPlan {
+  const total = lists.reduce((sum, l) => sum + l.length, 0);
+  const buffer = new Int32Array(total);
+  const views: Int32Array[] = [];
+  let at = 0;
+  for (const l of lists) {
+    buffer.set(l, at);
+    views.push(buffer.subarray(at, at + l.length));
+    at += l.length;
+  }
+  const [pr, pc, lStart, uStart, lRows, uCols, fill] = views;
+  return { pr, pc, lStart, uStart, lRows, uCols, fill };
 }
 
 /** A fresh plan starts from the pattern alone: no fill-in positions to clear. */
@@ -256,10 +282,7 @@ export class SparseLu {
     rowCnt.set(rowLen);
     colCnt.set(colLen);
     colValid.fill(0);
-    const pr = new Int32Array(n);
-    const pc = new Int32Array(n);
-    const lStart = new Int32Array(n + 1);
-    const uStart = new Int32Array(n + 1);
+    const { pr, pc, lStart, uStart } = sc;
     let lEnd = 0;
     let uEnd = 0;
     let fillEnd = 0;
@@ -387,7 +410,7 @@ export class SparseLu {
     lStart[n] = lEnd;
     uStart[n] = uEnd;
     this.plansMade++;
-    return { pr, pc, lStart, uStart, lRows: lBuf.slice(0, lEnd), uCols: uBuf.slice(0, uEnd), fill: fillBuf.slice(0, fillEnd) };
+    return packPlan(pr, pc, lStart, uStart, lBuf.subarray(0, lEnd), uBuf.subarray(0, uEnd), fillBuf.subarray(0, fillEnd));
   }
 
   /** Solves with the last factorisation: x[unknown] from b[row]. */
