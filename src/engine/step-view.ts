@@ -1,7 +1,7 @@
 import { UserInputError } from '../errors.js';
 import type { Hazard, Wording } from '../schemas/tree.js';
 import { HAZARDS } from '../schemas/tree.js';
-import { bandsFor, formatReading, formatValue, parseReading, parseValue } from '../units/index.js';
+import { bandFigures, bandsFor, formatReading, formatValue, parseReading, parseValue } from '../units/index.js';
 import type { ExpectedBand } from './outcome.js';
 import { rankFor, type Ranking } from './ranking.js';
 import { SAFETY_HOLD, type WalkContext, type WalkEvent } from './walk-context.js';
@@ -55,14 +55,16 @@ export interface WalkStep {
 export const OVERLOAD = /^\s*(ol|o\.l\.?|overload|open|inf(inity)?|∞)\s*$/i;
 
 /** A value as a person reads it; an infinite resistance is the meter's overload display. */
-export function showValue(value: number, unit: string): string {
-  return Number.isFinite(value) ? formatReading(value, unit) : 'overload (open)';
+export function showValue(value: number, unit: string, figures?: number): string {
+  return Number.isFinite(value) ? formatReading(value, unit, figures) : 'overload (open)';
 }
 
 export function describeBand(band: ExpectedBand): string {
   if (!Number.isFinite(band.min) && !Number.isFinite(band.max)) return `open: the meter shows overload (OL)`;
   if (!Number.isFinite(band.max)) return `${showValue(band.min, band.unit)} or more, up to overload (nominal ${showValue(band.nominal, band.unit)})`;
-  return `${showValue(band.min, band.unit)} to ${showValue(band.max, band.unit)} (nominal ${showValue(band.nominal, band.unit)})`;
+  const figures = bandFigures(band.min, band.max, 4);
+  const show = (v: number) => showValue(v, band.unit, figures);
+  return `${show(band.min)} to ${show(band.max)} (nominal ${show(band.nominal)})`;
 }
 
 function partView(walk: WalkSetup, ref: string, context: WalkContext): PartView {

@@ -41,9 +41,29 @@ export function formatValue(value: number, unit = '', significant = 3): string {
  * a rail (11.77 V, not 11.8 V), and anything below 10 µV (or 1 mΩ) as a plain zero — solver
  * residue such as 2.5 pV is not something a meter can display.
  */
-export function formatReading(value: number, unit: string): string {
+export function formatReading(value: number, unit: string, figures = 4): string {
   if (!Number.isFinite(value)) return formatValue(value, unit);
   const floor = unit === 'Ω' ? 1e-3 : 1e-5;
   if (Math.abs(value) < floor) return formatValue(0, unit);
-  return formatValue(value, unit, 4);
+  return formatValue(value, unit, figures);
+}
+
+/** A band is shown to at least this many steps of its last digit, and with at most MOST_FIGURES figures. */
+const BAND_STEPS = 4;
+const MOST_FIGURES = 5;
+
+/**
+ * Significant figures that keep a band's edges apart: the fewest from `least` up to MOST_FIGURES at
+ * which the band spans at least BAND_STEPS steps of the last digit. A rail band of 11.74 V to 11.80 V
+ * shown to three figures reads "11.7 V to 11.8 V", and a reading of 11.70 V would look inside it.
+ */
+export function bandFigures(min: number, max: number, least = 3): number {
+  const width = max - min;
+  const top = Math.max(Math.abs(min), Math.abs(max));
+  if (!(width > 0) || !Number.isFinite(width) || !(top > 0)) return least;
+  for (let figures = least; figures < MOST_FIGURES; figures++) {
+    const step = 10 ** (Math.floor(Math.log10(top)) - figures + 1);
+    if (width >= BAND_STEPS * step) return figures;
+  }
+  return MOST_FIGURES;
 }

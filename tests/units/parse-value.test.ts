@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { formatReading, formatValue, parseReading, parseValue } from '../../src/units/index.js';
+import { bandFigures, formatReading, formatValue, parseReading, parseValue } from '../../src/units/index.js';
 import { UserInputError } from '../../src/errors.js';
 
 describe('parseValue: IEC 60062 letter code (RKM)', () => {
@@ -169,5 +169,25 @@ describe('formatReading', () => {
     expect(formatReading(-2.55e-12, 'V')).toBe('0 V');
     expect(formatReading(9e-6, 'V')).toBe('0 V');
     expect(formatReading(2e-5, 'V')).toBe('20 µV');
+  });
+});
+
+describe('bandFigures', () => {
+  it('adds figures until a narrow band spans at least four steps of its last digit', () => {
+    // A rail band 11.74 V … 11.80 V: three figures step 0.1 V (both edges would read 11.7/11.8),
+    // four figures step 0.01 V, six steps across the band.
+    expect(bandFigures(11.7397, 11.7989)).toBe(4);
+    expect(formatValue(11.7397, 'V', bandFigures(11.7397, 11.7989))).toBe('11.74 V');
+    // A wide band keeps the least asked for.
+    expect(bandFigures(4.65, 4.95)).toBe(3);
+    expect(bandFigures(-1.08e-3, -301e-6)).toBe(3);
+    expect(bandFigures(4.65, 4.95, 4)).toBe(4);
+  });
+
+  it('stops at five figures, and leaves empty or unbounded bands alone', () => {
+    expect(bandFigures(11.77391, 11.77392)).toBe(5);
+    expect(bandFigures(5, 5)).toBe(3);
+    expect(bandFigures(1e3, Infinity)).toBe(3);
+    expect(bandFigures(0, 0, 4)).toBe(4);
   });
 });
