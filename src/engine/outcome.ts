@@ -29,8 +29,8 @@ export const NEAR_ZERO_OHMS = 1;
  * is "high", not "stuck"), then nothing, then low/high.
  */
 export function classifyReading(value: number, band: ExpectedBand, railVolts: number[], meter: MeterSpec = DEFAULT_METER): Outcome {
-  const slack = (edge: number) => (Number.isFinite(edge) ? meterAccuracy(edge, band.unit, meter) : 0);
-  if (value >= band.min - slack(band.min) && value <= band.max + slack(band.max)) return 'in-band';
+  const { below, above } = meterAllowance(band, meter);
+  if (value >= band.min - below && value <= band.max + above) return 'in-band';
   if (band.unit === 'V') {
     const nearRail = (v: number, r: number) => Math.abs(v - r) <= RAIL_WINDOW_V && Math.abs(r) > RAIL_WINDOW_V;
     if (railVolts.some((r) => nearRail(value, r) && !nearRail(band.nominal, r))) return 'stuck-at-rail';
@@ -39,6 +39,12 @@ export function classifyReading(value: number, band: ExpectedBand, railVolts: nu
     return 'near-zero';
   }
   return value < band.min ? 'low' : 'high';
+}
+
+/** How far beyond each edge of a band a reading still counts as in band: the meter's own accuracy there. */
+export function meterAllowance(band: ExpectedBand, meter: MeterSpec = DEFAULT_METER): { below: number; above: number } {
+  const slack = (edge: number) => (Number.isFinite(edge) ? meterAccuracy(edge, band.unit, meter) : 0);
+  return { below: slack(band.min), above: slack(band.max) };
 }
 
 /**

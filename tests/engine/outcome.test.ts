@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { branchFor, classifyReading } from '../../src/engine/outcome.js';
+import { branchFor, classifyReading, meterAllowance } from '../../src/engine/outcome.js';
+import { describeBand } from '../../src/engine/step-view.js';
 
 const RAILS = [12, -12];
 
@@ -44,5 +45,23 @@ describe('branchFor', () => {
     expect(branchFor({ high: 'b', default: 'c' }, 'stuck-at-rail', 11, band)).toBe('high');
     expect(branchFor({ high: 'b', default: 'c' }, 'near-zero', 0, band)).toBe('default');
     expect(branchFor({ low: 'b', default: 'c' }, 'near-zero', 0, band)).toBe('low');
+  });
+});
+
+describe('meterAllowance and the band as worded', () => {
+  it('is the slack classifyReading allows at each edge', () => {
+    // Same arithmetic as above: 11.80 V on the 20 V range -> 59 mV + 20 mV.
+    const band = { nominal: 11.76, min: 11.72, max: 11.8, unit: 'V' as const };
+    const { below, above } = meterAllowance(band);
+    expect(above).toBeCloseTo(0.005 * 11.8 + 2 * 0.01, 12);
+    expect(below).toBeCloseTo(0.005 * 11.72 + 2 * 0.01, 12);
+    expect(classifyReading(band.min - below * 0.99, band, RAILS)).toBe('in-band');
+    expect(classifyReading(band.min - below * 1.01, band, RAILS)).toBe('low');
+    expect(meterAllowance({ nominal: 1e12, min: 1e6, max: Infinity, unit: 'Ω' }).above).toBe(0);
+  });
+
+  it('words a narrow band with enough figures to keep its edges apart', () => {
+    expect(describeBand({ nominal: 11.7739, min: 11.7397, max: 11.7989, unit: 'V' })).toBe('11.74 V to 11.8 V (nominal 11.77 V)');
+    expect(describeBand({ nominal: 4.8, min: 4.65, max: 4.95, unit: 'V' })).toBe('4.65 V to 4.95 V (nominal 4.8 V)');
   });
 });

@@ -37,7 +37,7 @@ export function WalkView({ services, run, width, wording, ranking, send, onSumma
   const step = services.stepOf(run);
   const board = run.board;
   const title = `voltwalk · ${board.name} · ${run.tree.symptom}`;
-  const format = (v: number, unit: string) => services.engine.formatValue(v, unit);
+  const format = (v: number, unit: string, figures?: number) => services.engine.formatValue(v, unit, figures);
   const stages = board.stages.map((s) => ({ id: s.id, label: s.label }));
   const stageId =
     (step.testPoint && board.testPoints.find((t) => t.id === step.testPoint!.id)?.stage) ??
@@ -94,7 +94,6 @@ export function WalkView({ services, run, width, wording, ranking, send, onSumma
           testPoint={step.testPoint}
           condition={step.condition}
           band={step.expected}
-          format={format}
           check={(typed) => {
             const r = check(typed);
             return r.ok ? { ok: true, value: (r.value as { value: number }).value } : r;
@@ -104,7 +103,7 @@ export function WalkView({ services, run, width, wording, ranking, send, onSumma
             if (!event.ok) return;
             send(event.value);
             const record = services.contextOf(run).readings[step.node];
-            if (record) setResult({ testPoint: record.testPoint, label: step.testPoint?.label ?? '', value: record.value, band: record.band, outcome: record.outcome, stage: stageId });
+            if (record) setResult({ testPoint: record.testPoint, label: step.testPoint?.label ?? '', value: record.value, band: record.band, outcome: record.outcome, stage: stageId, allowance: services.engine.meterAllowance(record.band) });
           }}
           onSkip={() => send({ type: 'user.skip' })}
           onBack={back}

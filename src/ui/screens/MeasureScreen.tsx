@@ -5,7 +5,6 @@ import { TextField } from '../components/text-field/TextField.js';
 import type { Check } from '../components/text-field/use-text-field.js';
 import { Tinted } from '../theme/Tinted.js';
 import type { WalkStep } from '../../engine/step-view.js';
-import type { ExpectedBand } from '../../engine/outcome.js';
 
 interface Props {
   width: number;
@@ -14,8 +13,8 @@ interface Props {
   text: string;
   testPoint?: WalkStep['testPoint'];
   condition?: WalkStep['condition'];
-  band?: ExpectedBand;
-  format: (value: number, unit: string) => string;
+  /** The band as the engine words it (enough figures to keep its edges apart). */
+  band?: WalkStep['expected'];
   /** Parses what was typed as a reading of this quantity; its hint names the accepted forms. */
   check: (text: string) => Check<number>;
   isActive?: boolean;
@@ -25,7 +24,7 @@ interface Props {
 }
 
 /** One measurement: the set-up, where the probes go, the expected band, and the reading. */
-export function MeasureScreen({ width, title, stageMap, text, testPoint, condition, band, format, check, isActive = true, onReading, onSkip, onBack }: Props) {
+export function MeasureScreen({ width, title, stageMap, text, testPoint, condition, band, check, isActive = true, onReading, onSkip, onBack }: Props) {
   useInput(
     (_input, key) => {
       if (key.tab) onSkip();
@@ -60,9 +59,7 @@ export function MeasureScreen({ width, title, stageMap, text, testPoint, conditi
         ) : null}
         <Text>
           <Tinted tone="quiet">Expect: </Tinted>
-          {band
-            ? `${format(band.min, band.unit)} to ${format(band.max, band.unit)} (nominal ${format(band.nominal, band.unit)})`
-            : 'no expected value for this board here'}
+          {band ? band.text : 'no expected value for this board here'}
         </Text>
       </Box>
       <Box marginTop={1}>

@@ -2,7 +2,7 @@ import React from 'react';
 import { Box, Text, useInput } from 'ink';
 import { Frame } from '../components/frame/Frame.js';
 import { BandGauge, VERDICT_WORDS } from '../components/band-gauge/BandGauge.js';
-import type { Verdict } from '../components/band-gauge/gauge-layout.js';
+import type { GaugeAllowance, Verdict } from '../components/band-gauge/gauge-layout.js';
 import { Tinted } from '../theme/Tinted.js';
 import type { ExpectedBand } from '../../engine/outcome.js';
 
@@ -15,6 +15,8 @@ export interface ReadingResult {
   outcome: string;
   /** The stage the test point belongs to, for the stage map. */
   stage?: string;
+  /** The meter's accuracy beyond each band edge, within which the engine still called it in band. */
+  allowance?: GaugeAllowance;
 }
 
 interface Props {
@@ -22,7 +24,7 @@ interface Props {
   title: string;
   stageMap?: React.ReactNode;
   result: ReadingResult;
-  format: (value: number, unit: string) => string;
+  format: (value: number, unit: string, figures?: number) => string;
   isActive?: boolean;
   onContinue: () => void;
 }
@@ -62,7 +64,7 @@ export function ReadingResultScreen({ width, title, stageMap, result, format, is
         </Text>
         <Text>The reading is {OUTCOME_WORDS[result.outcome] ?? result.outcome}. Saved.</Text>
         <Box marginTop={1}>
-          <BandGauge band={result.band} reading={result.value} verdict={verdict} width={width} format={(v) => format(v, result.band.unit)} />
+          <BandGauge band={result.band} reading={result.value} verdict={verdict} allowance={result.allowance} width={width} format={(v, figures) => format(v, result.band.unit, figures)} />
         </Box>
       </Box>
     </Frame>

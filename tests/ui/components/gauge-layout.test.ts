@@ -45,6 +45,28 @@ describe('band gauge layout', () => {
     expect(verdictOf(band, 3.999)).toBe('low');
   });
 
+  it("draws the meter's accuracy beyond each edge as ':', and a reading there inside it", () => {
+    // Band 4 … 6 with 0.5 either side: the scale runs 2 … 8 (a band width beyond each edge).
+    const g = layoutGauge(band, 3.7, 31, { below: 0.5, above: 0.5 });
+    expect(g.scale).toMatch(/^-+:+\[=+\|=+\]:+-+$/);
+    const colons = g.scale.match(/:+(?=\[)/)![0].length;
+    // 0.5 of a 6-wide scale over 30 columns: two or three columns.
+    expect(colons).toBeGreaterThanOrEqual(2);
+    expect(colons).toBeLessThanOrEqual(3);
+    expect(g.marker).toBeLessThan(g.bandFrom);
+    expect(g.scale[g.marker!]).toBe(':');
+    // Without an allowance the same scale has none.
+    expect(layoutGauge(band, 3.7, 31).scale).not.toContain(':');
+  });
+
+  it('widens the scale to show an allowance wider than the band', () => {
+    const g = layoutGauge({ min: 11.74, max: 11.8, nominal: 11.77 }, 11.7, 40, { below: 0.079, above: 0.079 });
+    expect(g.scale).toHaveLength(40);
+    expect(g.scale.startsWith('-')).toBe(true);
+    expect(g.scale.endsWith('-')).toBe(true);
+    expect(g.scale[g.marker!]).toBe(':');
+  });
+
   it('writes the marker label on the side that has room', () => {
     expect(markerLine(2, '5 V', 20)).toBe('  ^ 5 V');
     expect(markerLine(19, '5 V', 20)).toBe('               5 V ^');

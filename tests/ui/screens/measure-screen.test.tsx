@@ -6,6 +6,8 @@ import { ReadingResultScreen } from '../../../src/ui/screens/ReadingResultScreen
 import type { Check } from '../../../src/ui/components/text-field/use-text-field.js';
 import { hintOf } from '../../../src/ui/components/text-field/hint-of.js';
 import { formatValue, parseReading } from '../../../src/units/index.js';
+import { describeBand } from '../../../src/engine/step-view.js';
+import { meterAllowance } from '../../../src/engine/outcome.js';
 import { BACKSPACE, ENTER, TAB, press } from '../keys.js';
 
 const check = (text: string): Check<number> => {
@@ -16,7 +18,8 @@ const check = (text: string): Check<number> => {
   }
 };
 const format = (v: number, unit: string) => formatValue(v, unit);
-const band = { nominal: 4.8, min: 4.65, max: 4.95, unit: 'V' as const };
+const raw = { nominal: 4.8, min: 4.65, max: 4.95, unit: 'V' as const };
+const band = { ...raw, text: describeBand(raw) };
 
 function setup() {
   const readings: Array<[number, string]> = [];
@@ -29,7 +32,6 @@ function setup() {
       testPoint={{ id: 'TP3', label: 'VCA control', probe: 'black on the ground loop, red on the TP3 pad', quantity: 'voltage' }}
       condition={{ id: 'rest', label: 'At rest', instructions: 'no input, knobs at noon', powered: true }}
       band={band}
-      format={format}
       check={check}
       onReading={(v, t) => readings.push([v, t])}
       onSkip={() => skips++}
@@ -111,6 +113,20 @@ describe('reading result', () => {
     // The marker sits right of the band's closing bracket: a high reading.
     expect(marker.indexOf('^')).toBeGreaterThan(scale.indexOf(']'));
     expect(marker).toContain('5.1 V HIGH');
+  });
+
+  it('a reading in band only by the meter accuracy says so, beside the allowance drawn with :', () => {
+    // 4.65 V on the 20 V range: 0.5 % of 4.65 V + 2 counts of 10 mV = 43.25 mV below the band.
+    const allowance = meterAllowance(band);
+    const { lastFrame } = render(
+      <ReadingResultScreen width={60} title="t" result={{ testPoint: 'TP3', label: 'VCA control', value: 4.62, band, outcome: 'in-band', allowance }} format={format} onContinue={() => {}} />,
+    );
+    const lines = lastFrame()!.split('\n');
+    expect(lines[2]).toBe('TP3 · VCA control: 4.62 V in band');
+    expect(lines[6]).toMatch(/^-+:+\[=+\|=+\]:+-+$/);
+    expect(lines[6][lines[7].indexOf('^')]).toBe(':');
+    expect(lines[7]).toContain('4.62 V in band (meter accuracy)');
+    expect(lines[8]).toMatch(/^: = meter accuracy \(±43\.3 mV below, ±44\.[78] mV above\)$/);
   });
 
   it('moves on with Enter', async () => {

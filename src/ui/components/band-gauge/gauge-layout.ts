@@ -1,8 +1,9 @@
 /**
  * Lays out the horizontal band gauge as plain characters, so it reads the same with or without
  * colour: `-` is the scale, `[` and `]` the healthy band's edges, `=` inside the band, `|` the
- * nominal value, and a `^` on the line below where the reading fell. A reading far outside the
- * scale is pinned to the edge and shown as `<` or `>` (off the scale).
+ * nominal value, `:` the meter's own accuracy beyond each edge (a reading there still counts as in
+ * band), and a `^` on the line below where the reading fell. A reading far outside the scale is
+ * pinned to the edge and shown as `<` or `>` (off the scale).
  */
 export interface GaugeBand {
   min: number;
@@ -11,6 +12,12 @@ export interface GaugeBand {
 }
 
 export type Verdict = 'in' | 'low' | 'high';
+
+/** How far beyond each band edge a reading is still in band (the meter's accuracy), in the band's unit. */
+export interface GaugeAllowance {
+  below: number;
+  above: number;
+}
 
 export interface GaugeLayout {
   /** The scale line, exactly `width` characters. */
@@ -34,11 +41,14 @@ export function verdictOf(band: GaugeBand, reading: number): Verdict {
 const MARGIN_SPANS = 1;
 const MAX_SPANS = 4;
 
-export function layoutGauge(band: GaugeBand, reading: number | undefined, width: number): GaugeLayout {
+export function layoutGauge(band: GaugeBand, reading: number | undefined, width: number, allowance?: GaugeAllowance): GaugeLayout {
   const w = Math.max(12, Math.floor(width));
   const span = bandSpan(band);
-  let lo = band.min - MARGIN_SPANS * span;
-  let hi = band.max + MARGIN_SPANS * span;
+  const below = allowance?.below ?? 0;
+  const above = allowance?.above ?? 0;
+  // The margin takes in the allowance, with room beyond it, however wide the allowance is.
+  let lo = band.min - Math.max(MARGIN_SPANS * span, 1.5 * below);
+  let hi = band.max + Math.max(MARGIN_SPANS * span, 1.5 * above);
   let offScale: 'low' | 'high' | undefined;
   if (reading !== undefined && Number.isFinite(reading)) {
     // Widen the scale to take the reading in, up to a limit; beyond it the reading is pinned.
@@ -56,7 +66,11 @@ export function layoutGauge(band: GaugeBand, reading: number | undefined, width:
     bandFrom = Math.max(0, mid - 1);
     bandTo = Math.min(w - 1, bandFrom + 2);
   }
-  const cells: string[] = Array.from({ length: w }, (_, i) => (i > bandFrom && i < bandTo ? '=' : '-'));
+  const slackFrom = below > 0 ? Math.min(col(band.min - below), bandFrom - 1) : bandFrom;
+  const slackTo = above > 0 ? Math.max(col(band.max + above), bandTo + 1) : bandTo;
+  const cells: string[] = Array.from({ length: w }, (_, i) =>
+    i > bandFrom && i < bandTo ? '=' : (i >= slackFrom && i < bandFrom) || (i > bandTo && i <= slackTo) ? ':' : '-',
+  );
   cells[bandFrom] = '[';
   cells[bandTo] = ']';
   const nominalCol = col(band.nominal);
