@@ -48,6 +48,23 @@ describe('bands on the bundled demo board', () => {
     forward.forEach((y, k) => expect([...backward[k]]).toEqual([...y]));
   }, 300_000);
 
+  it('a sample no warm start settles is solved from zero, not lost', () => {
+    // Seed 1's sample 626 under dc-above settles from neither its predicted start, the offset
+    // seed, nor a 4-step continuation from nominal (6 solves); the start from zero reaches it.
+    const ev = boardEvaluator(board, ['dc-above']);
+    ev.predictStarts();
+    const rng = createRng(1);
+    let u = new Float64Array(0);
+    for (let k = 0; k <= 626; k++) u = Float64Array.from(ev.deviations, (d) => drawDeviation(d.distribution, rng));
+    const before = ev.solves();
+    const y = ev.evaluate(u);
+    expect(ev.solves() - before).toBe(7);
+    expect([...y].filter((v) => !Number.isFinite(v))).toEqual([]);
+    // The board it reached is a neighbour of the healthy one: every reading within 2 V of nominal.
+    const nominal = ev.evaluate(new Float64Array(ev.deviations.length));
+    y.forEach((v, j) => expect(Math.abs(v - nominal[j]), ev.outputs[j].testPoint).toBeLessThan(2));
+  }, 300_000);
+
   it('gives attack and release times from the roles at mid-rotation', () => {
     const t = detectorTimes(board, 'quiescent');
     // τ = R·C and the 10–90 % time τ·ln 9 (first-order step response, textbook)
