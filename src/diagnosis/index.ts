@@ -15,3 +15,4 @@ export { colourMisreads, type Misread } from './colour-misreads.js';
 export { legOrderOf, pinLanding, type LegOrder } from './transistor-pinouts.js';
 export { showReading } from './why.js';
 export { defaultCacheDir, DICTIONARY_FORMAT } from './dictionary-cache.js';
+export { restrictDictionary } from './restrict-dictionary.js';

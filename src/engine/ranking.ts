@@ -1,4 +1,4 @@
-import { rankSuspects } from '../diagnosis/index.js';
+import { buildDictionary, dictionaryReady, rankSuspects, restrictDictionary } from '../diagnosis/index.js';
 import { UserInputError } from '../errors.js';
 import type { WalkContext } from './walk-context.js';
 import type { WalkSetup } from './walk-machine.js';
@@ -28,7 +28,12 @@ export function rankFor(walk: WalkSetup, context: WalkContext): Ranking {
   try {
     // The dictionary covers the conditions this walk measures in (one build per tree and board), not every condition of the board.
     const conditions = [...new Set([...Object.values(walk.plans).flatMap((p) => (p.node.kind === 'measure' && p.condition && !p.skip ? [p.condition.id] : [])), ...readings.map((r) => r.condition)])];
-    const { suspects, next } = rankSuspects(walk.view.board, readings, { substitutions: context.substitutions, conditions });
+    const board = walk.view.board;
+    const whole = { substitutions: context.substitutions };
+    // The whole board's dictionary, once built (the terminal app builds it in the background), holds
+    // these conditions' predictions too: cut them out rather than solve them again here.
+    const dictionary = dictionaryReady(board, whole) ? restrictDictionary(buildDictionary(board, whole), conditions) : undefined;
+    const { suspects, next } = rankSuspects(board, readings, { substitutions: context.substitutions, conditions, dictionary });
     return { suspects, next };
   } catch (error) {
     // A ranking is advice beside the tree's conclusion; if it cannot be computed the walk still stands.

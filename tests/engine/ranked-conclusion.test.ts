@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { loadBoard, measureAll } from '../../src/board/index.js';
-import { applyFault, faultsFor } from '../../src/diagnosis/index.js';
+import { applyFault, buildDictionary, clearDictionaryCache, dictionaryReady, faultsFor } from '../../src/diagnosis/index.js';
 import { findTree, walkFromAnswers, formatTranscriptText } from '../../src/engine/index.js';
 import { BOARDS_DIR } from '../../src/paths.js';
 import { join } from 'node:path';
@@ -29,4 +29,37 @@ describe('conclusion with ranked suspects', () => {
     expect(c.suspects!.map((s) => s.part)).toContain('D1');
     expect(formatTranscriptText(t)).toContain('Ranked suspects (from the readings):');
   }, 300_000);
+
+  it("takes the walk's conditions out of the whole board's dictionary when that is built, instead of building another", () => {
+    clearDictionaryCache();
+    const board = loadBoard(join(BOARDS_DIR, 'wenlow-nib.json'));
+    const tree = findTree('first-power-up');
+    const answers = healthyAnswers(tree, board);
+    const walked = walkFromAnswers(tree, board, answers, { samples: 0 });
+    // The ranking covers the conditions of the tree's measure steps, in the tree's order.
+    const conditions = [...new Set(Object.values(tree.nodes).flatMap((n) => (n.kind === 'measure' ? [board.roles.conditions[n.condition]!] : [])))];
+    // Without the whole dictionary, the walk builds one for its own conditions (and keeps it).
+    expect(dictionaryReady(board, { conditions })).toBe(true);
+    const before = walked.current.conclusion!.suspects!;
+
+    clearDictionaryCache();
+    buildDictionary(board);
+    const again = walkFromAnswers(tree, board, answers, { samples: 0 });
+    expect(dictionaryReady(board, { conditions })).toBe(false);
+    // The same suspects, as the predictions are the same numbers.
+    expect(again.current.conclusion!.suspects!.map((s) => [s.part, s.fault, s.group])).toEqual(before.map((s) => [s.part, s.fault, s.group]));
+  }, 300_000);
 });
+
+function healthyAnswers(tree: ReturnType<typeof findTree>, board: ReturnType<typeof loadBoard>): Record<string, string | boolean> {
+  const answers: Record<string, string | boolean> = { 'current-limit': 'no' };
+  for (const [id, n] of Object.entries(tree.nodes)) {
+    if (n.kind === 'caution' || n.kind === 'setup') answers[id] = true;
+    else if (n.kind === 'inspect') answers[id] = 'ok';
+    else if (n.kind === 'measure') {
+      const v = measureAll(board, board.roles.conditions[n.condition]!)[board.roles.testPoints[n.testPoint]!];
+      answers[id] = Number.isFinite(v) ? v.toPrecision(4) : 'OL';
+    }
+  }
+  return answers;
+}
