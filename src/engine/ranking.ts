@@ -29,9 +29,10 @@ export function rankFor(walk: WalkSetup, context: WalkContext): Ranking {
     // The dictionary covers the conditions this walk measures in (one build per tree and board), not every condition of the board.
     const conditions = [...new Set([...Object.values(walk.plans).flatMap((p) => (p.node.kind === 'measure' && p.condition && !p.skip ? [p.condition.id] : [])), ...readings.map((r) => r.condition)])];
     const board = walk.view.board;
-    const whole = { substitutions: context.substitutions };
-    // The whole board's dictionary, once built (the terminal app builds it in the background), holds
-    // these conditions' predictions too: cut them out rather than solve them again here.
+    const whole = { substitutions: context.substitutions, diskCache: walk.options.diskCache };
+    // The whole board's dictionary, once built (the terminal app builds it in the background, and
+    // `voltwalk rank` keeps it on disk), holds these conditions' predictions too: cut them out rather
+    // than solve them again here.
     const dictionary = dictionaryReady(board, whole) ? restrictDictionary(buildDictionary(board, whole), conditions) : undefined;
     const { suspects, next } = rankSuspects(board, readings, { substitutions: context.substitutions, conditions, dictionary });
     return { suspects, next };

@@ -13,6 +13,11 @@ export interface WalkOptions extends BandOptions {
   substitutions?: Record<string, number | string>;
   /** Rank suspects at the conclusion (default true); off for quick replays that only need the tree's route. */
   ranking?: boolean;
+  /**
+   * Where whole-board fault dictionaries are kept (by `voltwalk rank` or the terminal app): when the
+   * board's is there, the ranking takes the walk's conditions out of it. Only read, never written.
+   */
+  diskCache?: { dir: string; version: string };
 }
 
 /** What the step view and the transcript need besides the machine: the tree, the board and the compiled plan. */

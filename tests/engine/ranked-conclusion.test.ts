@@ -4,6 +4,8 @@ import { applyFault, buildDictionary, clearDictionaryCache, dictionaryReady, fau
 import { findTree, walkFromAnswers, formatTranscriptText } from '../../src/engine/index.js';
 import { BOARDS_DIR } from '../../src/paths.js';
 import { join } from 'node:path';
+import { mkdtempSync, readdirSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 
 // The conclusion carries the ranking's suspects for the readings the walk took. Building the fault
 // dictionary for a board takes a while, hence the long timeout.
@@ -48,6 +50,21 @@ describe('conclusion with ranked suspects', () => {
     expect(dictionaryReady(board, { conditions })).toBe(false);
     // The same suspects, as the predictions are the same numbers.
     expect(again.current.conclusion!.suspects!.map((s) => [s.part, s.fault, s.group])).toEqual(before.map((s) => [s.part, s.fault, s.group]));
+
+    // Kept on disk by an earlier run, it is read from there (and nothing is written).
+    const dir = mkdtempSync(join(tmpdir(), 'voltwalk-walk-cache-'));
+    const diskCache = { dir, version: 'test' };
+    clearDictionaryCache();
+    buildDictionary(board, { diskCache });
+    const files = readdirSync(dir);
+    expect(files).toHaveLength(1);
+    clearDictionaryCache();
+    const fromDisk = walkFromAnswers(tree, board, answers, { samples: 0, diskCache });
+    expect(dictionaryReady(board, { conditions })).toBe(false);
+    expect(dictionaryReady(board)).toBe(true);
+    expect(readdirSync(dir)).toEqual(files);
+    expect(fromDisk.current.conclusion!.suspects!.map((s) => [s.part, s.fault, s.group])).toEqual(before.map((s) => [s.part, s.fault, s.group]));
+    rmSync(dir, { recursive: true, force: true });
   }, 300_000);
 });
 

@@ -4,9 +4,11 @@ import type { Command } from '../command.js';
 import { parseOptions } from '../args.js';
 import { UsageError, UserInputError } from '../../errors.js';
 import { DEMO_BOARD_FILE, loadBoard } from '../../board/index.js';
+import { defaultCacheDir } from '../../diagnosis/index.js';
+import { version } from '../run.js';
 import { findTree, jsonNumbers, formatTranscriptMarkdown, formatTranscriptText, loadTree, walkFromAnswers, type Answers } from '../../engine/index.js';
 
-const HELP = `Usage: voltwalk walk --tree NAME --answers FILE [--board FILE] [--set REF=VALUE]... [--json|--md] [--customer] [--oscilloscope] [--samples N] [--no-ranking]
+const HELP = `Usage: voltwalk walk --tree NAME --answers FILE [--board FILE] [--set REF=VALUE]... [--json|--md] [--customer] [--oscilloscope] [--samples N] [--no-ranking] [--no-cache]
 
 Replays a diagnostic tree without the terminal UI. Each step's expected band is computed from the
 board's part values (after any --set); the transcript shows each step, the band, the reading and
@@ -27,6 +29,8 @@ the outcome, then the conclusion with the ranked suspects.
   --oscilloscope    the person has an oscilloscope (otherwise scope steps take their multimeter route)
   --samples N       Monte Carlo boards per band (default 1000; 0 = worst case only, faster)
   --no-ranking      leave out the ranked suspects at the conclusion (faster: no fault dictionary)
+  --no-cache        rank from a fault dictionary solved now, not the board's one kept by an earlier
+                    \`voltwalk rank\` or terminal walk
 
 When a step has no answer, or an answer is wrong for its step (a typo in a reading, an unknown
 choice), the partial transcript is printed up to that step, the problem goes to stderr on one line
@@ -84,6 +88,7 @@ export const command: Command = {
         oscilloscope: { type: 'boolean' },
         samples: { type: 'string' },
         'no-ranking': { type: 'boolean' },
+        'no-cache': { type: 'boolean' },
       },
       false,
     );
@@ -98,7 +103,7 @@ export const command: Command = {
     const board = loadBoard(values.board ? resolve(io.cwd, values.board) : DEMO_BOARD_FILE);
     const tree = values.tree.endsWith('.json') ? loadTree(resolve(io.cwd, values.tree)) : findTree(values.tree);
     const answers = readAnswers(resolve(io.cwd, values.answers));
-    const transcript = walkFromAnswers(tree, board, answers, { set: parseSets(values.set ?? []), oscilloscope: values.oscilloscope ?? false, samples, ranking: !values['no-ranking'] });
+    const transcript = walkFromAnswers(tree, board, answers, { set: parseSets(values.set ?? []), oscilloscope: values.oscilloscope ?? false, samples, ranking: !values['no-ranking'], diskCache: values['no-cache'] ? undefined : { dir: defaultCacheDir(io.env), version: version() } });
     const wording = values.customer ? 'customer' : 'technician';
     if (values.json) io.stdout(`${JSON.stringify(transcript, jsonNumbers, 2)}\n`);
     else if (values.md) io.stdout(formatTranscriptMarkdown(transcript, wording));
