@@ -93,3 +93,39 @@ function railMissing(board: Board, railId: string): Board {
   const rest = { ...board, rails: board.rails.filter((r) => r.id !== railId) };
   return link(rest, rail.net, board.ground, OPEN_OHMS, `${rail.label} rail missing`);
 }
+
+/**
+ * For a fault that is one added resistor away from the healthy board, that resistor and the
+ * resistance at which it leaves the board as it was: an opened pin's tie (the pin on a node of
+ * its own, tied back through OPEN_OHMS; nearly healthy at NEAR_SHORT_OHMS) or the link of a short
+ * or bridge (in parallel with what was there; nearly healthy at OPEN_OHMS). The dictionary walks
+ * such a fault in from that value when plain Newton cannot reach the faulty circuit (value-walk.ts).
+ * undefined for every other fault (pins re-landed, rails changed, a resistor's value).
+ */
+export interface FaultLink {
+  /** Designator of the added resistor on the faulty board. */
+  ref: string;
+  /** Its resistance on the faulty board. */
+  ohms: number;
+  /** A resistance at which the faulty circuit is the healthy one to within a small perturbation. */
+  nearHealthyOhms: number;
+  /** For an opened pin: [the pin's own net, the net it was on], to start the lone node there. */
+  opened?: [string, string];
+}
+
+/** Small against every resistance on a module board, large against the solver's 1 µΩ floor. */
+export const NEAR_SHORT_OHMS = 1e-2;
+
+const OPENED_PIN_MODES: ReadonlySet<Fault['mode']> = new Set(['open', 'wiper-open', 'track-open', 'open-be', 'open-bc', 'output-floating', 'missing-pos-supply', 'missing-neg-supply']);
+const LINKED_PIN_MODES: ReadonlySet<Fault['mode']> = new Set(['short', 'bridge', 'short-ce']);
+
+export function faultLink(board: Board, faulty: Board, fault: Fault): FaultLink | undefined {
+  const opened = OPENED_PIN_MODES.has(fault.mode);
+  if (!opened && !LINKED_PIN_MODES.has(fault.mode)) return undefined;
+  // The link is the one part the fault added (board-edits.ts: link()); nothing else was added.
+  if (faulty.parts.length !== board.parts.length + 1) return undefined;
+  const added = faulty.parts[faulty.parts.length - 1];
+  if (board.parts.some((p) => p.ref === added.ref) || added.kind !== 'resistor' || typeof added.value !== 'number') return undefined;
+  if (opened) return { ref: added.ref, ohms: added.value, nearHealthyOhms: NEAR_SHORT_OHMS, opened: [added.pins['1'], added.pins['2']] };
+  return { ref: added.ref, ohms: added.value, nearHealthyOhms: OPEN_OHMS };
+}

@@ -1,11 +1,12 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Board } from '../schemas/board.js';
-import { buildCircuit, measureAll, modelNameFor, OPAMP_PACKAGES, resolveOpAmp, testPointsFor, withSubstitutions } from '../board/index.js';
+import { buildCircuit, measureAll, modelNameFor, type BuiltCircuit, OPAMP_PACKAGES, resolveOpAmp, testPointsFor, withSubstitutions } from '../board/index.js';
 import { solveDC, type DcSolution } from '../circuit/index.js';
 import { expectBands, type Band } from '../circuit/analysis/expect-bands.js';
 import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
-import { applyFault } from './apply-fault.js';
+import { applyFault, faultLink, type FaultLink } from './apply-fault.js';
+import { faultyBoardReadings, type FaultyReadings } from './faulty-board-readings.js';
 import { DEFAULT_NO_FAULT_PRIOR } from './fault-modes.js';
 import type { Fault } from './fault.js';
 import { faultsFor } from './faults-for.js';
@@ -49,11 +50,16 @@ export interface BuiltDictionary extends FaultDictionary {
 /**
  * The fault dictionary (simulation before test; Bandler & Salama, Proc. IEEE 73(8), 1985): for the
  * healthy board and every candidate single fault, the reading a meter would show at every test
- * point under every condition in play. Each faulty board is solved warm-started from the healthy
- * solution of the same condition; a fault that only changes a resistor's value is solved on the
- * healthy circuit compiled once per condition, with the value written in place (value-fault-solver.ts). A fault whose circuit does not settle stays in, predicting NaN
- * there ("unpredictable"), so the ranking neither drops nor favours it.
- * Results are cached per board content, substitutions and conditions.
+ * point under every condition in play. Each faulty board is solved by plain Newton warm-started
+ * from the healthy solution of the same condition; a fault that only changes a resistor's value is
+ * solved on the healthy circuit compiled once per condition, with the value written in place
+ * (value-fault-solver.ts). Where plain Newton from the healthy point fails (about one faulty
+ * circuit in eight on the demo board), the fault's own operating point under the previous powered
+ * condition is tried as the start, then the faulted resistor is walked in from its healthy value
+ * (value-walk.ts), and only then the solver's gmin and source stepping (faulty-board-readings.ts).
+ * A fault whose circuit does not settle stays in, predicting NaN there ("unpredictable"), so the
+ * ranking neither drops nor favours it. Results are cached per board content, substitutions and
+ * conditions.
  */
 export function buildDictionary(board: Board, options: DictionaryOptions = {}): BuiltDictionary {
   const subject = options.substitutions && Object.keys(options.substitutions).length > 0 ? withSubstitutions(board, options.substitutions) : board;
@@ -135,8 +141,22 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
   // Value-only faults first, in place; the rest, and any value fault that did not settle in place,
   // take the full rebuild below.
   const quick = valueFaultPredictions(board, conditions, faults);
+  // Per condition, the readings of every circuit solved so far by its netlist: a fault whose
+  // circuit is one already solved (the healthy one, with the op-amps out of an unpowered board;
+  // two parallel capacitors' shorts) has exactly those readings, the solve being a function of the
+  // netlist and its warm start alone. undefined readings: that circuit did not settle.
+  const solved = new Map(conditions.map((c) => [c, new Map<string, FaultyReadings | undefined>()]));
+  for (const condition of conditions) {
+    const readings: Record<string, number> = {};
+    const at = observables.findIndex((o) => o.condition === condition);
+    testPointsFor(board, condition).forEach((tp, j) => (readings[tp.id] = nominal[at + j]));
+    solved.get(condition)!.set(netlistKey(buildCircuit(board, condition)), { readings, unknowns: warm.get(condition)?.unknowns });
+  }
   faults.forEach((fault, i) => {
     let faulty: Board | undefined;
+    let link: FaultLink | undefined;
+    // The fault's operating point in the last powered condition it settled in.
+    let elsewhere: Record<string, number> | undefined;
     const predictions: number[] = [];
     for (const condition of conditions) {
       const fast = quick.get(condition)?.[i];
@@ -144,23 +164,35 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
         predictions.push(...fast);
         continue;
       }
-      faulty ??= applyFault(board, fault);
-      let readings: Record<string, number> | undefined;
-      try {
-        readings = measureAll(faulty, condition, { initial: warm.get(condition) });
-      } catch (error) {
-        if (!isSolverFailure(error)) throw error;
-        unsettled.set(fault.id, [...(unsettled.get(fault.id) ?? []), condition]);
+      if (!faulty) {
+        faulty = applyFault(board, fault);
+        link = faultLink(board, faulty, fault);
       }
+      const built = buildCircuit(faulty, condition);
+      const key = netlistKey(built);
+      const seen = solved.get(condition)!;
+      let solution: FaultyReadings | undefined;
+      if (seen.has(key)) {
+        solution = seen.get(key);
+      } else {
+        try {
+          solution = faultyBoardReadings(faulty, condition, warm.get(condition), link, built, elsewhere);
+        } catch (error) {
+          if (!isSolverFailure(error)) throw error;
+        }
+        seen.set(key, solution);
+      }
+      if (solution?.unknowns) elsewhere = solution.unknowns;
+      const readings = solution?.readings;
+      if (!readings) unsettled.set(fault.id, [...(unsettled.get(fault.id) ?? []), condition]);
       for (const tp of testPointsFor(board, condition)) predictions.push(readings ? readings[tp.id] : NaN);
     }
     hypotheses.push({ id: fault.id, part: fault.part, mode: fault.mode, fault: fault.fault, prior: fault.prior, predictions });
   });
-  // After every nominal solve, so the solvers' reuse of earlier pivot plans meets the nominal
-  // circuits in the same order with or without these extra solves.
   faults.forEach((fault, i) => {
     if (!joinsInputs(board, fault)) return;
-    const variants = offsetVariants(applyFault(board, fault), fault.part, conditions, hypotheses[i + 1].predictions, board, warm);
+    const faulty = applyFault(board, fault);
+    const variants = offsetVariants(faulty, fault.part, conditions, hypotheses[i + 1].predictions, board, warm, faultLink(board, faulty, fault));
     if (variants) hypotheses[i + 1].variants = variants;
   });
 
@@ -182,9 +214,20 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
 function valueFaultPredictions(board: Board, conditions: string[], faults: Fault[]): Map<string, Array<number[] | undefined>> {
   const out = new Map<string, Array<number[] | undefined>>();
   if (!faults.some((f) => faultedResistance(f, 1) !== undefined)) return out;
+  // Each fault's operating point in the last powered condition it settled in.
+  const elsewhere = new Map<number, Record<string, number>>();
   for (const condition of conditions) {
     const solver = createValueFaultSolver(board, condition);
-    if (solver) out.set(condition, faults.map((f) => solver.predict(f)));
+    if (!solver) continue;
+    out.set(
+      condition,
+      faults.map((f, i) => {
+        const readings = solver.predict(f, elsewhere.get(i));
+        const unknowns = readings && solver.settledUnknowns();
+        if (unknowns) elsewhere.set(i, unknowns);
+        return readings;
+      }),
+    );
   }
   return out;
 }
@@ -207,7 +250,7 @@ function joinsInputs(board: Board, fault: Fault): boolean {
   return pkg.amplifiers.some((amp) => (amp.plus === a && amp.minus === b) || (amp.plus === b && amp.minus === a));
 }
 
-function offsetVariants(faulty: Board, ref: string, conditions: string[], nominal: number[], board: Board, warm: Map<string, DcSolution | undefined>): number[][] | undefined {
+function offsetVariants(faulty: Board, ref: string, conditions: string[], nominal: number[], board: Board, warm: Map<string, DcSolution | undefined>, link: FaultLink | undefined): number[][] | undefined {
   const part = faulty.parts.find((p) => p.ref === ref);
   const name = part && modelNameFor(part);
   const params = name === undefined ? undefined : resolveOpAmp(faulty, name);
@@ -231,7 +274,7 @@ function offsetVariants(faulty: Board, ref: string, conditions: string[], nomina
       } else {
         let readings: Record<string, number> | undefined;
         try {
-          readings = measureAll(variant, condition, { initial: warm.get(condition) });
+          readings = faultyBoardReadings(variant, condition, warm.get(condition), link).readings;
         } catch (error) {
           if (!isSolverFailure(error)) throw error;
         }
@@ -241,6 +284,15 @@ function offsetVariants(faulty: Board, ref: string, conditions: string[], nomina
     }
     return predictions;
   });
+}
+
+/**
+ * What the board's circuit in a condition is, as text: its elements in order and its models. An
+ * unpowered board's ohmmeter circuits are these elements with the meter added and floating nodes
+ * tied, so equal keys mean equal circuits for every test point too.
+ */
+function netlistKey({ circuit }: BuiltCircuit): string {
+  return JSON.stringify([circuit.elements, circuit.models]);
 }
 
 const isSolverFailure = (error: unknown) => error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError;

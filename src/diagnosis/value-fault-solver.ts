@@ -4,6 +4,8 @@ import { createDcSolver, GROUND, type DcSolver } from '../circuit/index.js';
 import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
 import { SHORT_OHMS } from './board-edits.js';
 import type { Fault } from './fault.js';
+import { walkValue } from './value-walk.js';
+import { ELSEWHERE_ITERATIONS, plainNewton, startOver, unknownsByName } from './newton-attempt.js';
 
 /**
  * Predictions for faults that only change one resistor's value, without rebuilding the circuit.
@@ -49,7 +51,13 @@ export interface ValueFaultSolver {
    * Readings at every test point of the condition (in testPointsFor order) with this fault, or
    * undefined when the fault is not a value change this solver handles or did not settle here.
    */
-  predict(fault: Fault): number[] | undefined;
+  predict(fault: Fault, elsewhere?: Record<string, number>): number[] | undefined;
+  /**
+   * After a powered prediction that settled, its operating point by unknown name: a start for the
+   * same fault in another condition (`elsewhere` above), tried when plain Newton from the healthy
+   * point fails, before the walk.
+   */
+  settledUnknowns(): Record<string, number> | undefined;
 }
 
 /** One compiled circuit and how to read its test points from the solver's unknowns. */
@@ -57,6 +65,10 @@ interface Setup {
   solver: DcSolver;
   /** Where each fault's solve starts: the healthy unknowns when powered, zero (cold) when not. */
   start: Float64Array | undefined;
+  /** The healthy operating point, where a walk to the faulted value starts. */
+  healthy: Float64Array;
+  /** The pivot plans the healthy solve left, where every fault's solve starts. */
+  plans: ReturnType<DcSolver['engine']['lu']['savePlans']>;
   /** Designator of a resistor → its element and healthy value, as built from the board. */
   resistors: Map<string, { element: string; value: number }>;
   setters: Map<string, (value: number) => void>;
@@ -70,7 +82,19 @@ const isSolverFailure = (error: unknown) => error instanceof ConvergenceError ||
  * The value-fault solver of one condition, or undefined when a healthy circuit of it does not settle
  * with the default options (its faults then all take the full way).
  */
-export function createValueFaultSolver(board: Board, conditionId: string): ValueFaultSolver | undefined {
+export interface ValueFaultOptions {
+  /**
+   * Start every fault with no pivot plans, as a freshly built circuit does, instead of with the
+   * plans the healthy solve left. The healthy plans mostly still fit a one-resistor change and save
+   * planning every fault afresh (demo board, 13 powered conditions: ≈9,000 plans down to ≈2,700),
+   * but a fault then lands elsewhere within the tolerance than the rebuilt board does (a few 1e-6
+   * relative at most on the demo board); fresh plans make the two agree far closer, for checking
+   * this path against the rebuild.
+   */
+  freshPlans?: boolean;
+}
+
+export function createValueFaultSolver(board: Board, conditionId: string, options: ValueFaultOptions = {}): ValueFaultSolver | undefined {
   const condition = findCondition(board, conditionId);
   const points = testPointsFor(board, condition);
   const setups: Setup[] = [];
@@ -104,7 +128,7 @@ export function createValueFaultSolver(board: Board, conditionId: string): Value
     }
   }
 
-  function predict(fault: Fault): number[] | undefined {
+  function predict(fault: Fault, elsewhere?: Record<string, number>): number[] | undefined {
     const readings = new Array<number>(points.length).fill(NaN);
     for (const setup of setups) {
       const resistor = setup.resistors.get(fault.part);
@@ -118,16 +142,13 @@ export function createValueFaultSolver(board: Board, conditionId: string): Value
         setup.setters.set(fault.part, set);
       }
       set(value);
-      // Every fault starts with no pivot plans, as a freshly built circuit does: which plan
-      // factors a matrix decides its rounding, and so where Newton lands within its tolerance.
-      // Kept plans would make a fault's prediction depend on the faults solved before it.
-      setup.solver.engine.lu.restorePlans([]);
+      // Every fault starts from the same pivot plans: which plan factors a matrix decides its
+      // rounding, and so where Newton lands within its tolerance, so plans kept from fault to
+      // fault would make a prediction depend on the faults solved before it.
+      setup.solver.engine.lu.restorePlans(options.freshPlans ? [] : setup.plans);
       try {
-        setup.solver.solveLean(setup.start ? { start: setup.start } : {});
+        if (!settle(setup, set, healthy, value, elsewhere)) return undefined;
         setup.read(setup.solver.x, readings);
-      } catch (error) {
-        if (!isSolverFailure(error)) throw error;
-        return undefined;
       } finally {
         set(healthy);
       }
@@ -135,7 +156,35 @@ export function createValueFaultSolver(board: Board, conditionId: string): Value
     return readings;
   }
 
-  return { predict };
+  const settledUnknowns = () => (condition.powered && setups.length === 1 ? unknownsByName(setups[0].solver) : undefined);
+  return { predict, settledUnknowns };
+}
+
+/**
+ * Plain Newton from the start; when that fails, Newton from the fault's own operating point under
+ * another condition (`elsewhere`, when known), then the resistor walked from its healthy value to
+ * the faulted one (value-walk.ts); when those fail too, the solver's own aids (gmin and source
+ * stepping) from the start, as before, so a fault settles here whenever it did without them. Plain
+ * Newton runs first and alone so that every fault it settles lands where it did: the other starts
+ * only decide the faults that needed gmin stepping (as in faulty-board-readings.ts).
+ */
+function settle(setup: Setup, set: (value: number) => void, healthy: number, value: number, elsewhere: Record<string, number> | undefined): boolean {
+  const { solver } = setup;
+  const from = setup.start ? { start: setup.start } : {};
+  if (plainNewton(solver, setup.start)) return true;
+  // The solver's aids start over from `from` with the plans plain Newton left: as without the walk.
+  const plans = solver.engine.lu.savePlans();
+  if (elsewhere && plainNewton(solver, startOver(solver, setup.healthy, elsewhere), ELSEWHERE_ITERATIONS)) return true;
+  if (walkValue(solver, set, healthy, value, setup.healthy).settled) return true;
+  set(value);
+  solver.engine.lu.restorePlans(plans);
+  try {
+    solver.solveLean({ ...from, skip: ['newton'] });
+    return true;
+  } catch (error) {
+    if (!isSolverFailure(error)) throw error;
+    return false;
+  }
 }
 
 function prepare({ circuit, partElements }: BuiltCircuit, warm: boolean): Omit<Setup, 'read'> | undefined {
@@ -151,7 +200,8 @@ function prepare({ circuit, partElements }: BuiltCircuit, warm: boolean): Omit<S
     const e = names.length === 1 ? circuit.elements.find((el) => el.name === names[0]) : undefined;
     if (e?.kind === 'resistor') resistors.set(ref, { element: e.name, value: e.value });
   }
-  return { solver, start: warm ? solver.x.slice() : undefined, resistors, setters: new Map() };
+  const healthy = solver.x.slice();
+  return { solver, start: warm ? healthy : undefined, healthy, plans: solver.engine.lu.savePlans(), resistors, setters: new Map() };
 }
 
 /** Unknown index of a node, −1 for ground or a node the circuit lacks (read as 0 V, as measureAll does). */

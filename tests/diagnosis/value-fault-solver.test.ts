@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { buildCircuit, DEMO_BOARD_FILE, loadBoard, measureAll, testPointsFor } from '../../src/board/index.js';
-import { solveDC } from '../../src/circuit/index.js';
+import { ConvergenceError, createDcSolver, solveDC, type DcSolution } from '../../src/circuit/index.js';
 import { applyFault, buildDictionary, faultsFor } from '../../src/diagnosis/index.js';
 import { createValueFaultSolver, faultedResistance } from '../../src/diagnosis/value-fault-solver.js';
 import { SHORT_OHMS } from '../../src/diagnosis/board-edits.js';
@@ -16,6 +16,26 @@ const close = (fast: number, full: number) => {
   if (!Number.isFinite(full) || !Number.isFinite(fast)) return fast === full;
   return Math.abs(fast - full) <= Math.max(1e-6 * Math.abs(full), 1e-6);
 };
+/**
+ * A fault plain Newton cannot reach from the healthy point is settled by a walk of the resistor in
+ * place and by gmin stepping on the rebuild: two routes to the same operating point, each stopping
+ * anywhere within the solver's tolerance, so they are asked to agree within twice SPICE's default
+ * RELTOL (1e-3) and VNTOL (1 µV) (common practice).
+ */
+const withinTolerance = (fast: number, full: number) => {
+  if (!Number.isFinite(full) || !Number.isFinite(fast)) return fast === full;
+  return Math.abs(fast - full) <= 2 * (1e-3 * Math.max(Math.abs(fast), Math.abs(full)) + 1e-6);
+};
+/** Whether plain Newton from the healthy point settles the rebuilt faulty board (no gmin or source stepping). */
+function plainNewtonSettles(faulty: ReturnType<typeof applyFault>, condition: string, initial: DcSolution | undefined): boolean {
+  try {
+    createDcSolver(buildCircuit(faulty, condition).circuit).solve({ initial, skip: ['gmin', 'source'] });
+    return true;
+  } catch (error) {
+    if (error instanceof ConvergenceError) return false;
+    throw error;
+  }
+}
 
 describe('faultedResistance', () => {
   const fault = (mode: Fault['mode'], value?: number): Fault => ({ id: `R1/${mode}`, part: 'R1', kind: 'resistor', mode, fault: mode, prior: 1, value });
@@ -40,8 +60,10 @@ describe('value faults on the demo board: in place vs rebuilt', () => {
 
   for (const condition of ['unpowered', 'quiescent', 'dc-above-ratio-max']) {
     it(`every resistor short and misread value agrees in ${condition}`, () => {
-      const solver = createValueFaultSolver(board, condition)!;
+      const solver = createValueFaultSolver(board, condition, { freshPlans: true })!;
       expect(solver).toBeDefined();
+      // The dictionary's solver, starting each fault from the healthy plans, within the tolerance.
+      const quick = createValueFaultSolver(board, condition)!;
       const powered = board.conditions.find((c) => c.id === condition)!.powered;
       const initial = powered ? solveDC(buildCircuit(board, condition).circuit) : undefined;
       const points = testPointsFor(board, condition);
@@ -51,9 +73,13 @@ describe('value faults on the demo board: in place vs rebuilt', () => {
         const fast = solver.predict(fault);
         if (!fast) continue;
         handled++;
-        const full = measureAll(applyFault(board, fault), condition, { initial });
+        const faulty = applyFault(board, fault);
+        const full = measureAll(faulty, condition, { initial });
+        const agree = plainNewtonSettles(faulty, condition, initial) ? close : withinTolerance;
+        const kept = quick.predict(fault);
         points.forEach((tp, k) => {
-          if (!close(fast[k], full[tp.id])) mismatches.push(`${fault.id} ${tp.id}: ${fast[k]} vs ${full[tp.id]}`);
+          if (!agree(fast[k], full[tp.id])) mismatches.push(`${fault.id} ${tp.id}: ${fast[k]} vs ${full[tp.id]}`);
+          if (kept && !withinTolerance(kept[k], full[tp.id])) mismatches.push(`${fault.id} ${tp.id} (healthy plans): ${kept[k]} vs ${full[tp.id]}`);
         });
       }
       expect(mismatches).toEqual([]);
@@ -71,9 +97,12 @@ describe('value faults on the demo board: in place vs rebuilt', () => {
       const h = dict.hypotheses[i + 1];
       expect(h.id).toBe(fault.id);
       for (const condition of conditions) {
-        const full = measureAll(applyFault(board, fault), condition, { initial: condition === 'quiescent' ? initial : undefined });
+        const faulty = applyFault(board, fault);
+        const warm = condition === 'quiescent' ? initial : undefined;
+        const full = measureAll(faulty, condition, { initial: warm });
+        const agree = plainNewtonSettles(faulty, condition, warm) ? close : withinTolerance;
         dict.observables.forEach((o, j) => {
-          if (o.condition === condition) expect(close(h.predictions[j], full[o.testPoint]), `${fault.id} ${o.testPoint}`).toBe(true);
+          if (o.condition === condition) expect(agree(h.predictions[j], full[o.testPoint]), `${fault.id} ${o.testPoint}`).toBe(true);
         });
       }
     });

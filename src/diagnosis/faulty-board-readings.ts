@@ -1,0 +1,108 @@
+import type { Board } from '../schemas/board.js';
+import { buildCircuit, FALLBACK_DC_OPTIONS, findCondition, measureAll, readVoltage, testPointsFor, type BuiltCircuit } from '../board/index.js';
+import { ConvergenceError, createDcSolver, solveDC, type DcSolution, type DcSolver } from '../circuit/index.js';
+import { ELSEWHERE_ITERATIONS, plainNewton, startOver, unknownsByName } from './newton-attempt.js';
+import type { FaultLink } from './apply-fault.js';
+import { walkValue } from './value-walk.js';
+
+export interface FaultyReadings {
+  readings: Record<string, number>;
+  /** The operating point they come from, by unknown name (powered conditions only). */
+  unknowns?: Record<string, number>;
+}
+
+/**
+ * The readings of a faulty board in one condition, as measureAll gives them warm-started from the
+ * healthy operating point, except where plain Newton from there fails. measureAll then steps gmin
+ * from the healthy point (≈130 iterations a circuit on the demo board); here, first:
+ *  1. Newton from `elsewhere`, the fault's own operating point under another condition (a knob or
+ *     a test signal apart, so usually a few iterations away), for at most ELSEWHERE_ITERATIONS;
+ *  2. when the fault is one added resistor (`link`), that resistor walked in from a value at which
+ *     the board is as good as healthy (value-walk.ts).
+ * Then, if neither settles, exactly measureAll's way: gmin and source stepping from the healthy
+ * point with the pivot plans plain Newton left, then its fallback options from zero. Plain Newton
+ * runs first and alone, so every circuit it settles lands exactly where measureAll's does, and a
+ * fault settles here whenever measureAll settles it. ConvergenceError when nothing settles.
+ * Unpowered, or with no healthy point, it is measureAll itself.
+ */
+export function faultyBoardReadings(
+  faulty: Board,
+  conditionId: string,
+  warm: DcSolution | undefined,
+  link: FaultLink | undefined,
+  built?: BuiltCircuit,
+  elsewhere?: Record<string, number>,
+): FaultyReadings {
+  const condition = findCondition(faulty, conditionId);
+  if (!condition.powered || !warm) return { readings: measureAll(faulty, conditionId, { initial: warm }) };
+  const { circuit, netNode, partElements } = built ?? buildCircuit(faulty, condition.id);
+  const points = testPointsFor(faulty, condition);
+  const solver = createDcSolver(circuit);
+  const settledAt = (x: Float64Array): FaultyReadings => ({ readings: readX(solver.compiled.nodeIndex, x, faulty, points, netNode), unknowns: unknownsByName(solver, x) });
+  const start = startFrom(solver.compiled.unknownNames, warm);
+  // solveLean is solve() without the DcSolution: the same start, strategy and convergence test.
+  if (plainNewton(solver, start)) return settledAt(solver.x);
+  const plans = solver.engine.lu.savePlans();
+  if (elsewhere && plainNewton(solver, startOver(solver, start, elsewhere), ELSEWHERE_ITERATIONS)) return settledAt(solver.x);
+  const [element] = link ? (partElements[link.ref] ?? []) : [];
+  if (link && element !== undefined) {
+    const set = solver.valueSetter(element, 'value');
+    const walked = walkValue(solver, set, link.nearHealthyOhms, link.ohms, openedAtItsNet(solver, start, link, netNode)).settled;
+    set(link.ohms);
+    if (walked) return settledAt(solver.x);
+  }
+  solver.engine.lu.restorePlans(plans);
+  try {
+    solver.solve({ initial: warm, skip: ['newton'] });
+    return settledAt(solver.x);
+  } catch (error) {
+    if (!(error instanceof ConvergenceError)) throw error;
+    // measureAll's own fallbacks (solvePatiently), each from zero on a fresh solver.
+    let last: unknown = error;
+    for (const fallback of FALLBACK_DC_OPTIONS) {
+      try {
+        const s = solveDC(circuit, { ...fallback, initial: undefined });
+        const readings: Record<string, number> = {};
+        for (const tp of points) readings[tp.id] = readVoltage(faulty, tp, netNode, s);
+        return { readings };
+      } catch (again) {
+        if (!(again instanceof ConvergenceError)) throw again;
+        last = again;
+      }
+    }
+    throw last;
+  }
+}
+
+/** The healthy unknowns by name, zero where the faulty circuit has new ones (as solve() warm-starts). */
+function startFrom(unknownNames: string[], warm: DcSolution): Float64Array {
+  const start = new Float64Array(unknownNames.length);
+  unknownNames.forEach((name, i) => {
+    let v = warm.unknowns?.[name];
+    if (v === undefined) v = warm.nodes[name];
+    if (v === undefined && name.startsWith('i(')) v = warm.sourceCurrents[name.slice(2, -1)];
+    start[i] = typeof v === 'number' && Number.isFinite(v) ? v : 0;
+  });
+  return start;
+}
+
+/** The walk's start: an opened pin's own node at the voltage of the net it left, as when it was joined. */
+function openedAtItsNet(solver: DcSolver, start: Float64Array, link: FaultLink, netNode: (net: string) => string): Float64Array {
+  if (!link.opened) return start;
+  const { nodeIndex } = solver.compiled;
+  const lone = nodeIndex.get(netNode(link.opened[0]));
+  const from = nodeIndex.get(netNode(link.opened[1]));
+  const out = start.slice();
+  if (lone !== undefined) out[lone] = from === undefined ? 0 : start[from];
+  return out;
+}
+
+function readX(nodeIndex: Map<string, number>, x: Float64Array, board: Board, points: ReturnType<typeof testPointsFor>, netNode: (net: string) => string): Record<string, number> {
+  const v = (net: string) => {
+    const i = nodeIndex.get(netNode(net));
+    return i === undefined ? 0 : x[i];
+  };
+  const readings: Record<string, number> = {};
+  for (const tp of points) readings[tp.id] = v(tp.net) - v(tp.refNet ?? board.ground);
+  return readings;
+}
