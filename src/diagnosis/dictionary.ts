@@ -140,23 +140,42 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
   const hypotheses: Hypothesis[] = [{ id: NO_FAULT, part: NO_FAULT, mode: NO_FAULT, fault: 'no fault', prior: 0, predictions: nominal }];
   // Value-only faults first, in place; the rest, and any value fault that did not settle in place,
   // take the full rebuild below.
-  const quick = valueFaultPredictions(board, conditions, faults);
+  const reference = referencePoints(board, warm);
+  const quick = valueFaultPredictions(board, conditions, faults, reference);
   // Per condition, the readings of every circuit solved so far by its netlist: a fault whose
   // circuit is one already solved (the healthy one, with the op-amps out of an unpowered board;
   // two parallel capacitors' shorts) has exactly those readings, the solve being a function of the
-  // netlist and its warm start alone. undefined readings: that circuit did not settle.
-  const solved = new Map(conditions.map((c) => [c, new Map<string, FaultyReadings | undefined>()]));
+  // netlist and its starts alone. undefined: that circuit did not settle.
+  const solved = new Map([...conditions, reference.condition].filter((c) => c !== undefined).map((c) => [c, new Map<string, FaultyReadings | undefined>()]));
   for (const condition of conditions) {
     const readings: Record<string, number> = {};
     const at = observables.findIndex((o) => o.condition === condition);
     testPointsFor(board, condition).forEach((tp, j) => (readings[tp.id] = nominal[at + j]));
     solved.get(condition)!.set(netlistKey(buildCircuit(board, condition)), { readings, unknowns: warm.get(condition)?.unknowns });
   }
+  /** The faulty board's readings in a condition, through the netlist cache. */
+  const solveIn = (faulty: Board, condition: string, initial: DcSolution | undefined, link: FaultLink | undefined, elsewhere?: () => Record<string, number> | undefined) => {
+    const built = buildCircuit(faulty, condition);
+    const key = netlistKey(built);
+    const seen = solved.get(condition)!;
+    if (seen.has(key)) return seen.get(key);
+    let solution: FaultyReadings | undefined;
+    try {
+      solution = faultyBoardReadings(faulty, condition, initial, link, built, elsewhere);
+    } catch (error) {
+      if (!isSolverFailure(error)) throw error;
+    }
+    seen.set(key, solution);
+    return solution;
+  };
   faults.forEach((fault, i) => {
     let faulty: Board | undefined;
     let link: FaultLink | undefined;
-    // The fault's operating point in the last powered condition it settled in.
-    let elsewhere: Record<string, number> | undefined;
+    let refPoint: { unknowns?: Record<string, number> } | undefined;
+    const atReference = () => {
+      if (!refPoint) refPoint = (reference.condition && reference.warm && solveIn(faulty!, reference.condition, reference.warm, link)) || {};
+      return refPoint.unknowns;
+    };
     const predictions: number[] = [];
     for (const condition of conditions) {
       const fast = quick.get(condition)?.[i];
@@ -168,21 +187,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
         faulty = applyFault(board, fault);
         link = faultLink(board, faulty, fault);
       }
-      const built = buildCircuit(faulty, condition);
-      const key = netlistKey(built);
-      const seen = solved.get(condition)!;
-      let solution: FaultyReadings | undefined;
-      if (seen.has(key)) {
-        solution = seen.get(key);
-      } else {
-        try {
-          solution = faultyBoardReadings(faulty, condition, warm.get(condition), link, built, elsewhere);
-        } catch (error) {
-          if (!isSolverFailure(error)) throw error;
-        }
-        seen.set(key, solution);
-      }
-      if (solution?.unknowns) elsewhere = solution.unknowns;
+      const solution = solveIn(faulty, condition, warm.get(condition), link, condition === reference.condition ? undefined : atReference);
       const readings = solution?.readings;
       if (!readings) unsettled.set(fault.id, [...(unsettled.get(fault.id) ?? []), condition]);
       for (const tp of testPointsFor(board, condition)) predictions.push(readings ? readings[tp.id] : NaN);
@@ -210,26 +215,58 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
  * condition, faults[i]'s readings or undefined where a fault takes the full rebuild (not a value
  * change, or it did not settle in place). One condition at a time: a solver's recent LU pivot plans
  * then keep fitting from one fault to the next (≈10 % faster than fault by fault on the demo board).
+ * A fault plain Newton cannot settle from the healthy point starts again from its own point under
+ * the reference condition (see ReferencePoints), solved in place there too.
  */
-function valueFaultPredictions(board: Board, conditions: string[], faults: Fault[]): Map<string, Array<number[] | undefined>> {
+function valueFaultPredictions(board: Board, conditions: string[], faults: Fault[], reference: ReferencePoints): Map<string, Array<number[] | undefined>> {
   const out = new Map<string, Array<number[] | undefined>>();
   if (!faults.some((f) => faultedResistance(f, 1) !== undefined)) return out;
-  // Each fault's operating point in the last powered condition it settled in.
-  const elsewhere = new Map<number, Record<string, number>>();
+  const solvers = new Map(conditions.map((c) => [c, createValueFaultSolver(board, c)]));
+  const ref = reference.condition;
+  const refSolver = ref === undefined ? undefined : solvers.has(ref) ? solvers.get(ref) : createValueFaultSolver(board, ref);
+  const refPoints = new Map<number, Record<string, number> | undefined>();
+  const refPoint = (i: number) => {
+    if (!refPoints.has(i)) refPoints.set(i, refSolver?.predict(faults[i]) ? refSolver.settledUnknowns() : undefined);
+    return refPoints.get(i);
+  };
   for (const condition of conditions) {
-    const solver = createValueFaultSolver(board, condition);
+    const solver = solvers.get(condition);
     if (!solver) continue;
+    const isRef = condition === ref;
     out.set(
       condition,
       faults.map((f, i) => {
-        const readings = solver.predict(f, elsewhere.get(i));
-        const unknowns = readings && solver.settledUnknowns();
-        if (unknowns) elsewhere.set(i, unknowns);
+        const readings = solver.predict(f, isRef ? undefined : () => refPoint(i));
+        if (isRef && readings && !refPoints.has(i)) refPoints.set(i, solver.settledUnknowns());
         return readings;
       }),
     );
   }
   return out;
+}
+
+/**
+ * Where a faulty circuit that plain Newton cannot settle from the healthy point starts next: the
+ * fault's own operating point under one reference condition, the board's first powered one. One
+ * condition fixed by the board, not the previous one asked for, so that a prediction does not
+ * depend on which other conditions the dictionary was built for (restrict-dictionary.ts relies on
+ * that); the reference is solved for a fault only when some other condition needs it.
+ */
+interface ReferencePoints {
+  condition: string | undefined;
+  warm: DcSolution | undefined;
+}
+
+function referencePoints(board: Board, warm: Map<string, DcSolution | undefined>): ReferencePoints {
+  const condition = board.conditions.find((c) => c.powered)?.id;
+  if (condition === undefined) return { condition, warm: undefined };
+  if (warm.has(condition)) return { condition, warm: warm.get(condition) };
+  try {
+    return { condition, warm: healthySolution(board, condition) };
+  } catch (error) {
+    if (!isSolverFailure(error)) throw error;
+    return { condition: undefined, warm: undefined };
+  }
 }
 
 /**

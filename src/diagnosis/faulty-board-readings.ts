@@ -15,8 +15,9 @@ export interface FaultyReadings {
  * The readings of a faulty board in one condition, as measureAll gives them warm-started from the
  * healthy operating point, except where plain Newton from there fails. measureAll then steps gmin
  * from the healthy point (≈130 iterations a circuit on the demo board); here, first:
- *  1. Newton from `elsewhere`, the fault's own operating point under another condition (a knob or
- *     a test signal apart, so usually a few iterations away), for at most ELSEWHERE_ITERATIONS;
+ *  1. Newton from `elsewhere()`, the fault's own operating point under another condition (a knob
+ *     or a test signal apart, so usually a few iterations away), for at most ELSEWHERE_ITERATIONS;
+ *     asked for only here, as it may take a solve;
  *  2. when the fault is one added resistor (`link`), that resistor walked in from a value at which
  *     the board is as good as healthy (value-walk.ts).
  * Then, if neither settles, exactly measureAll's way: gmin and source stepping from the healthy
@@ -31,7 +32,7 @@ export function faultyBoardReadings(
   warm: DcSolution | undefined,
   link: FaultLink | undefined,
   built?: BuiltCircuit,
-  elsewhere?: Record<string, number>,
+  elsewhere?: () => Record<string, number> | undefined,
 ): FaultyReadings {
   const condition = findCondition(faulty, conditionId);
   if (!condition.powered || !warm) return { readings: measureAll(faulty, conditionId, { initial: warm }) };
@@ -43,7 +44,8 @@ export function faultyBoardReadings(
   // solveLean is solve() without the DcSolution: the same start, strategy and convergence test.
   if (plainNewton(solver, start)) return settledAt(solver.x);
   const plans = solver.engine.lu.savePlans();
-  if (elsewhere && plainNewton(solver, startOver(solver, start, elsewhere), ELSEWHERE_ITERATIONS)) return settledAt(solver.x);
+  const other = elsewhere?.();
+  if (other && plainNewton(solver, startOver(solver, start, other), ELSEWHERE_ITERATIONS)) return settledAt(solver.x);
   const [element] = link ? (partElements[link.ref] ?? []) : [];
   if (link && element !== undefined) {
     const set = solver.valueSetter(element, 'value');

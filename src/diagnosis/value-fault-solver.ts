@@ -51,7 +51,7 @@ export interface ValueFaultSolver {
    * Readings at every test point of the condition (in testPointsFor order) with this fault, or
    * undefined when the fault is not a value change this solver handles or did not settle here.
    */
-  predict(fault: Fault, elsewhere?: Record<string, number>): number[] | undefined;
+  predict(fault: Fault, elsewhere?: () => Record<string, number> | undefined): number[] | undefined;
   /**
    * After a powered prediction that settled, its operating point by unknown name: a start for the
    * same fault in another condition (`elsewhere` above), tried when plain Newton from the healthy
@@ -128,7 +128,7 @@ export function createValueFaultSolver(board: Board, conditionId: string, option
     }
   }
 
-  function predict(fault: Fault, elsewhere?: Record<string, number>): number[] | undefined {
+  function predict(fault: Fault, elsewhere?: () => Record<string, number> | undefined): number[] | undefined {
     const readings = new Array<number>(points.length).fill(NaN);
     for (const setup of setups) {
       const resistor = setup.resistors.get(fault.part);
@@ -162,19 +162,20 @@ export function createValueFaultSolver(board: Board, conditionId: string, option
 
 /**
  * Plain Newton from the start; when that fails, Newton from the fault's own operating point under
- * another condition (`elsewhere`, when known), then the resistor walked from its healthy value to
+ * another condition (`elsewhere()`, asked for only then), then the resistor walked from its healthy value to
  * the faulted one (value-walk.ts); when those fail too, the solver's own aids (gmin and source
  * stepping) from the start, as before, so a fault settles here whenever it did without them. Plain
  * Newton runs first and alone so that every fault it settles lands where it did: the other starts
  * only decide the faults that needed gmin stepping (as in faulty-board-readings.ts).
  */
-function settle(setup: Setup, set: (value: number) => void, healthy: number, value: number, elsewhere: Record<string, number> | undefined): boolean {
+function settle(setup: Setup, set: (value: number) => void, healthy: number, value: number, elsewhere: (() => Record<string, number> | undefined) | undefined): boolean {
   const { solver } = setup;
   const from = setup.start ? { start: setup.start } : {};
   if (plainNewton(solver, setup.start)) return true;
   // The solver's aids start over from `from` with the plans plain Newton left: as without the walk.
   const plans = solver.engine.lu.savePlans();
-  if (elsewhere && plainNewton(solver, startOver(solver, setup.healthy, elsewhere), ELSEWHERE_ITERATIONS)) return true;
+  const other = elsewhere?.();
+  if (other && plainNewton(solver, startOver(solver, setup.healthy, other), ELSEWHERE_ITERATIONS)) return true;
   if (walkValue(solver, set, healthy, value, setup.healthy).settled) return true;
   set(value);
   solver.engine.lu.restorePlans(plans);
