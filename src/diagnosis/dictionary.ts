@@ -7,6 +7,7 @@ import { expectBands, type Band } from '../circuit/analysis/expect-bands.js';
 import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
 import { applyFault, faultLink, type FaultLink } from './apply-fault.js';
 import { faultyBoardReadings, type FaultyReadings } from './faulty-board-readings.js';
+import { faultyOhmmeterReadings, healthyOhmmeterPoints } from './ohmmeter-readings.js';
 import { DEFAULT_NO_FAULT_PRIOR } from './fault-modes.js';
 import type { Fault } from './fault.js';
 import { faultsFor } from './faults-for.js';
@@ -154,6 +155,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
     solved.get(condition)!.set(netlistKey(buildCircuit(board, condition)), { readings, unknowns: warm.get(condition)?.unknowns });
   }
   /** The faulty board's readings in a condition, through the netlist cache. */
+  const ohmmeterPoints = new Map<string, Map<string, DcSolution>>();
   const solveIn = (faulty: Board, condition: string, initial: DcSolution | undefined, link: FaultLink | undefined, elsewhere?: () => Record<string, number> | undefined) => {
     const built = buildCircuit(faulty, condition);
     const key = netlistKey(built);
@@ -161,7 +163,12 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
     if (seen.has(key)) return seen.get(key);
     let solution: FaultyReadings | undefined;
     try {
-      solution = faultyBoardReadings(faulty, condition, initial, link, built, elsewhere);
+      if (!board.conditions.find((c) => c.id === condition)?.powered) {
+        if (!ohmmeterPoints.has(condition)) ohmmeterPoints.set(condition, healthyOhmmeterPoints(board, condition));
+        solution = { readings: faultyOhmmeterReadings(faulty, condition, ohmmeterPoints.get(condition)!) };
+      } else {
+        solution = faultyBoardReadings(faulty, condition, initial, link, built, elsewhere);
+      }
     } catch (error) {
       if (!isSolverFailure(error)) throw error;
     }

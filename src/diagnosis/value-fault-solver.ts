@@ -15,10 +15,12 @@ import { ELSEWHERE_ITERATIONS, plainNewton, startOver, unknownsByName } from './
  * element, solves, and the healthy value is written back. The matrix pattern and LU plan never
  * depend on values, so each fault pays only for its Newton iterations.
  *
- * Each solve starts where the full path's would (the dictionary's measureAll): from the healthy
- * unknowns when powered, from zero when not. Newton stops once a step is within reltol, so where it
- * lands depends on where it started; starting alike keeps the two paths' answers equal far below
- * the convergence tolerance (a warm ohmmeter solve differed from the cold one by ≈1e-6 relative).
+ * Each solve starts from the healthy unknowns of its circuit (powered, or with the meter on the
+ * same test point), as the dictionary's rebuilt faults do (faulty-board-readings.ts,
+ * ohmmeter-readings.ts). Newton stops once a step is within reltol, so where it lands depends on
+ * where it started and on the pivot plans that factored each step; `asMeasured` starts every fault
+ * as measureAll on the rebuilt board would (unpowered from zero, no plans), which keeps the two
+ * paths' answers equal far below the convergence tolerance, for checking this path.
  *
  * A fault that does not settle here returns undefined: the caller solves it the full way (with its
  * fallback options), so this path never makes a fault unpredictable that the full way can predict.
@@ -63,7 +65,7 @@ export interface ValueFaultSolver {
 /** One compiled circuit and how to read its test points from the solver's unknowns. */
 interface Setup {
   solver: DcSolver;
-  /** Where each fault's solve starts: the healthy unknowns when powered, zero (cold) when not. */
+  /** Where each fault's solve starts: the healthy unknowns, or zero (cold) for an ohmmeter circuit solved as measureAll does. */
   start: Float64Array | undefined;
   /** The healthy operating point, where a walk to the faulted value starts. */
   healthy: Float64Array;
@@ -84,14 +86,14 @@ const isSolverFailure = (error: unknown) => error instanceof ConvergenceError ||
  */
 export interface ValueFaultOptions {
   /**
-   * Start every fault with no pivot plans, as a freshly built circuit does, instead of with the
-   * plans the healthy solve left. The healthy plans mostly still fit a one-resistor change and save
-   * planning every fault afresh (demo board, 13 powered conditions: ≈9,000 plans down to ≈2,700),
-   * but a fault then lands elsewhere within the tolerance than the rebuilt board does (a few 1e-6
-   * relative at most on the demo board); fresh plans make the two agree far closer, for checking
-   * this path against the rebuild.
+   * Start every fault as measureAll on the rebuilt board does: with no pivot plans, and unpowered
+   * from zero. By default a fault starts with the plans the healthy solve left, which mostly still
+   * fit a one-resistor change (demo board, 13 powered conditions: ≈9,000 plans down to ≈2,700), and
+   * an ohmmeter circuit from its healthy point (≈24 Newton iterations from zero, a few from there);
+   * a fault then lands elsewhere within the tolerance than measureAll does (a few 1e-6 relative on
+   * the demo board).
    */
-  freshPlans?: boolean;
+  asMeasured?: boolean;
 }
 
 export function createValueFaultSolver(board: Board, conditionId: string, options: ValueFaultOptions = {}): ValueFaultSolver | undefined {
@@ -115,7 +117,7 @@ export function createValueFaultSolver(board: Board, conditionId: string, option
       const tp = points[k];
       const built = buildCircuit(board, condition.id, { ohmmeter: { testPoint: tp.id } });
       const { netNode } = built;
-      const setup = prepare(built, false);
+      const setup = prepare(built, !options.asMeasured);
       if (!setup) return undefined;
       const [probe, ref] = probes(board, tp, netNode, setup.solver);
       const meter = index(setup.solver, METER_NODE);
@@ -145,7 +147,7 @@ export function createValueFaultSolver(board: Board, conditionId: string, option
       // Every fault starts from the same pivot plans: which plan factors a matrix decides its
       // rounding, and so where Newton lands within its tolerance, so plans kept from fault to
       // fault would make a prediction depend on the faults solved before it.
-      setup.solver.engine.lu.restorePlans(options.freshPlans ? [] : setup.plans);
+      setup.solver.engine.lu.restorePlans(options.asMeasured ? [] : setup.plans);
       try {
         if (!settle(setup, set, healthy, value, elsewhere)) return undefined;
         setup.read(setup.solver.x, readings);
