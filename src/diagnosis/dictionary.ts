@@ -1,12 +1,12 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Board } from '../schemas/board.js';
-import { buildCircuit, measureAll, modelNameFor, type BuiltCircuit, OPAMP_PACKAGES, resolveOpAmp, testPointsFor, withSubstitutions } from '../board/index.js';
-import { solveDC, type DcSolution } from '../circuit/index.js';
+import { buildCircuit, measureAll, modelNameFor, OPAMP_PACKAGES, resolveOpAmp, testPointsFor, withSubstitutions } from '../board/index.js';
+import { compileCircuit, solveDC, type DcSolution } from '../circuit/index.js';
 import { expectBands, type Band } from '../circuit/analysis/expect-bands.js';
 import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
 import { applyFault, faultLink, type FaultLink } from './apply-fault.js';
-import { faultyBoardReadings, type FaultyReadings } from './faulty-board-readings.js';
+import { faultyBoardReadings, type FaultyReadings, type SavedPlans } from './faulty-board-readings.js';
 import { faultyOhmmeterReadings, healthyOhmmeterPoints } from './ohmmeter-readings.js';
 import { DEFAULT_NO_FAULT_PRIOR } from './fault-modes.js';
 import type { Fault } from './fault.js';
@@ -55,9 +55,11 @@ export interface BuiltDictionary extends FaultDictionary {
  * from the healthy solution of the same condition; a fault that only changes a resistor's value is
  * solved on the healthy circuit compiled once per condition, with the value written in place
  * (value-fault-solver.ts). Where plain Newton from the healthy point fails (about one faulty
- * circuit in eight on the demo board), the fault's own operating point under the previous powered
- * condition is tried as the start, then the faulted resistor is walked in from its healthy value
- * (value-walk.ts), and only then the solver's gmin and source stepping (faulty-board-readings.ts).
+ * circuit in eight on the demo board), the fault's own operating point under another condition
+ * fixed by the board is tried as the start (startingConditions), then the faulted resistor is
+ * walked in from its healthy value (value-walk.ts), and only then the solver's gmin and source
+ * stepping (faulty-board-readings.ts). A circuit already solved in a condition (circuitKey) is not
+ * solved again.
  * A fault whose circuit does not settle stays in, predicting NaN there ("unpredictable"), so the
  * ranking neither drops nor favours it. Results are cached per board content, substitutions and
  * conditions.
@@ -141,24 +143,22 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
   const hypotheses: Hypothesis[] = [{ id: NO_FAULT, part: NO_FAULT, mode: NO_FAULT, fault: 'no fault', prior: 0, predictions: nominal }];
   // Value-only faults first, in place; the rest, and any value fault that did not settle in place,
   // take the full rebuild below.
-  const reference = referencePoints(board, warm);
-  const quick = valueFaultPredictions(board, conditions, faults, reference);
+  const quick = valueFaultPredictions(board, conditions, faults);
   // Per condition, the readings of every circuit solved so far by its netlist: a fault whose
   // circuit is one already solved (the healthy one, with the op-amps out of an unpowered board;
   // two parallel capacitors' shorts) has exactly those readings, the solve being a function of the
   // netlist and its starts alone. undefined: that circuit did not settle.
-  const solved = new Map([...conditions, reference.condition].filter((c) => c !== undefined).map((c) => [c, new Map<string, FaultyReadings | undefined>()]));
+  const solved = new Map(board.conditions.map((c) => [c.id, new Map<string, FaultyReadings | undefined>()]));
   for (const condition of conditions) {
     const readings: Record<string, number> = {};
     const at = observables.findIndex((o) => o.condition === condition);
     testPointsFor(board, condition).forEach((tp, j) => (readings[tp.id] = nominal[at + j]));
-    solved.get(condition)!.set(netlistKey(buildCircuit(board, condition)), { readings, unknowns: warm.get(condition)?.unknowns });
+    solved.get(condition)!.set(circuitKey(board, condition), { readings, unknowns: warm.get(condition)?.unknowns });
   }
   /** The faulty board's readings in a condition, through the netlist cache. */
   const ohmmeterPoints = new Map<string, Map<string, DcSolution>>();
-  const solveIn = (faulty: Board, condition: string, initial: DcSolution | undefined, link: FaultLink | undefined, elsewhere?: () => Record<string, number> | undefined) => {
-    const built = buildCircuit(faulty, condition);
-    const key = netlistKey(built);
+  const solveIn = (faulty: Board, condition: string, initial: DcSolution | undefined, link: FaultLink | undefined, elsewhere?: () => Record<string, number> | undefined, plans?: SavedPlans) => {
+    const key = circuitKey(faulty, condition);
     const seen = solved.get(condition)!;
     if (seen.has(key)) return seen.get(key);
     let solution: FaultyReadings | undefined;
@@ -167,7 +167,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
         if (!ohmmeterPoints.has(condition)) ohmmeterPoints.set(condition, healthyOhmmeterPoints(board, condition));
         solution = { readings: faultyOhmmeterReadings(faulty, condition, ohmmeterPoints.get(condition)!) };
       } else {
-        solution = faultyBoardReadings(faulty, condition, initial, link, built, elsewhere);
+        solution = faultyBoardReadings(faulty, condition, initial, link, undefined, elsewhere, plans);
       }
     } catch (error) {
       if (!isSolverFailure(error)) throw error;
@@ -175,14 +175,25 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
     seen.set(key, solution);
     return solution;
   };
+  const starts = startingConditions(board, warm);
+  // For the faults that get offset variants: the fault's own solves, which the variants start from.
+  const nominalSolves = new Map<number, (condition: string) => FaultyReadings>();
   faults.forEach((fault, i) => {
     let faulty: Board | undefined;
     let link: FaultLink | undefined;
-    let refPoint: { unknowns?: Record<string, number> } | undefined;
-    const atReference = () => {
-      if (!refPoint) refPoint = (reference.condition && reference.warm && solveIn(faulty!, reference.condition, reference.warm, link)) || {};
-      return refPoint.unknowns;
+    // The fault solved under a condition other conditions start from (see startingConditions).
+    const solvedAt = new Map<string, FaultyReadings>();
+    const at = (condition: string): FaultyReadings => {
+      let solution = solvedAt.get(condition);
+      if (!solution) {
+        const from = starts.get(condition);
+        const other = from && at(from.condition);
+        solution = solveIn(faulty!, condition, starts.warm(condition), link, other && (() => other.unknowns), from?.plans ? other?.plans : undefined) ?? { readings: {} };
+        solvedAt.set(condition, solution);
+      }
+      return solution;
     };
+    if (joinsInputs(board, fault)) nominalSolves.set(i, at);
     const predictions: number[] = [];
     for (const condition of conditions) {
       const fast = quick.get(condition)?.[i];
@@ -194,17 +205,17 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
         faulty = applyFault(board, fault);
         link = faultLink(board, faulty, fault);
       }
-      const solution = solveIn(faulty, condition, warm.get(condition), link, condition === reference.condition ? undefined : atReference);
-      const readings = solution?.readings;
-      if (!readings) unsettled.set(fault.id, [...(unsettled.get(fault.id) ?? []), condition]);
-      for (const tp of testPointsFor(board, condition)) predictions.push(readings ? readings[tp.id] : NaN);
+      const readings = warm.get(condition) ? at(condition).readings : solveIn(faulty, condition, undefined, link)?.readings;
+      const settled = readings && Object.keys(readings).length === testPointsFor(board, condition).length;
+      if (!settled) unsettled.set(fault.id, [...(unsettled.get(fault.id) ?? []), condition]);
+      for (const tp of testPointsFor(board, condition)) predictions.push(settled ? readings[tp.id] : NaN);
     }
     hypotheses.push({ id: fault.id, part: fault.part, mode: fault.mode, fault: fault.fault, prior: fault.prior, predictions });
   });
   faults.forEach((fault, i) => {
     if (!joinsInputs(board, fault)) return;
     const faulty = applyFault(board, fault);
-    const variants = offsetVariants(faulty, fault.part, conditions, hypotheses[i + 1].predictions, board, warm, faultLink(board, faulty, fault));
+    const variants = offsetVariants(faulty, fault.part, conditions, hypotheses[i + 1].predictions, board, warm, faultLink(board, faulty, fault), nominalSolves.get(i));
     if (variants) hypotheses[i + 1].variants = variants;
   });
 
@@ -223,13 +234,14 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
  * change, or it did not settle in place). One condition at a time: a solver's recent LU pivot plans
  * then keep fitting from one fault to the next (≈10 % faster than fault by fault on the demo board).
  * A fault plain Newton cannot settle from the healthy point starts again from its own point under
- * the reference condition (see ReferencePoints), solved in place there too.
+ * the board's first powered condition, solved in place there too: a condition fixed by the board,
+ * as in startingConditions.
  */
-function valueFaultPredictions(board: Board, conditions: string[], faults: Fault[], reference: ReferencePoints): Map<string, Array<number[] | undefined>> {
+function valueFaultPredictions(board: Board, conditions: string[], faults: Fault[]): Map<string, Array<number[] | undefined>> {
   const out = new Map<string, Array<number[] | undefined>>();
   if (!faults.some((f) => faultedResistance(f, 1) !== undefined)) return out;
   const solvers = new Map(conditions.map((c) => [c, createValueFaultSolver(board, c)]));
-  const ref = reference.condition;
+  const ref = board.conditions.find((c) => c.powered)?.id;
   const refSolver = ref === undefined ? undefined : solvers.has(ref) ? solvers.get(ref) : createValueFaultSolver(board, ref);
   const refPoints = new Map<number, Record<string, number> | undefined>();
   const refPoint = (i: number) => {
@@ -253,27 +265,45 @@ function valueFaultPredictions(board: Board, conditions: string[], faults: Fault
 }
 
 /**
- * Where a faulty circuit that plain Newton cannot settle from the healthy point starts next: the
- * fault's own operating point under one reference condition, the board's first powered one. One
- * condition fixed by the board, not the previous one asked for, so that a prediction does not
- * depend on which other conditions the dictionary was built for (restrict-dictionary.ts relies on
- * that); the reference is solved for a fault only when some other condition needs it.
+ * Where each powered condition's faulty circuits start when plain Newton from the healthy point
+ * fails, fixed by the board alone so that a prediction does not depend on which other conditions
+ * the dictionary was built for (restrict-dictionary.ts relies on that): the fault's own operating
+ * point under the first powered condition, in board order, whose healthy circuit has the same
+ * matrix pattern (a knob apart), with the pivot plans that solve left; the first condition of a
+ * pattern starts from the board's first powered condition, without its plans.
  */
-interface ReferencePoints {
-  condition: string | undefined;
-  warm: DcSolution | undefined;
-}
-
-function referencePoints(board: Board, warm: Map<string, DcSolution | undefined>): ReferencePoints {
-  const condition = board.conditions.find((c) => c.powered)?.id;
-  if (condition === undefined) return { condition, warm: undefined };
-  if (warm.has(condition)) return { condition, warm: warm.get(condition) };
-  try {
-    return { condition, warm: healthySolution(board, condition) };
-  } catch (error) {
-    if (!isSolverFailure(error)) throw error;
-    return { condition: undefined, warm: undefined };
+function startingConditions(board: Board, warm: Map<string, DcSolution | undefined>) {
+  const powered = board.conditions.filter((c) => c.powered).map((c) => c.id);
+  const patterns = new Map<string, string>();
+  const from = new Map<string, { condition: string; plans: boolean }>();
+  const firstOf = new Map<string, string>();
+  for (const id of powered) {
+    const pattern = Buffer.from(compileCircuit(buildCircuit(board, id).circuit).pattern).toString('base64');
+    patterns.set(id, pattern);
+    const first = firstOf.get(pattern);
+    if (first === undefined) {
+      firstOf.set(pattern, id);
+      if (id !== powered[0]) from.set(id, { condition: powered[0], plans: false });
+    } else {
+      from.set(id, { condition: first, plans: true });
+    }
   }
+  const healthy = new Map(warm);
+  return {
+    get: (condition: string) => from.get(condition),
+    /** The healthy point of a powered condition (solved here when the dictionary did not ask for it). */
+    warm(condition: string): DcSolution | undefined {
+      if (!healthy.has(condition)) {
+        try {
+          healthy.set(condition, healthySolution(board, condition));
+        } catch (error) {
+          if (!isSolverFailure(error)) throw error;
+          healthy.set(condition, undefined);
+        }
+      }
+      return healthy.get(condition);
+    },
+  };
 }
 
 /**
@@ -294,7 +324,16 @@ function joinsInputs(board: Board, fault: Fault): boolean {
   return pkg.amplifiers.some((amp) => (amp.plus === a && amp.minus === b) || (amp.plus === b && amp.minus === a));
 }
 
-function offsetVariants(faulty: Board, ref: string, conditions: string[], nominal: number[], board: Board, warm: Map<string, DcSolution | undefined>, link: FaultLink | undefined): number[][] | undefined {
+function offsetVariants(
+  faulty: Board,
+  ref: string,
+  conditions: string[],
+  nominal: number[],
+  board: Board,
+  warm: Map<string, DcSolution | undefined>,
+  link: FaultLink | undefined,
+  nominalSolve: ((condition: string) => FaultyReadings) | undefined,
+): number[][] | undefined {
   const part = faulty.parts.find((p) => p.ref === ref);
   const name = part && modelNameFor(part);
   const params = name === undefined ? undefined : resolveOpAmp(faulty, name);
@@ -318,7 +357,10 @@ function offsetVariants(faulty: Board, ref: string, conditions: string[], nomina
       } else {
         let readings: Record<string, number> | undefined;
         try {
-          readings = faultyBoardReadings(variant, condition, warm.get(condition), link).readings;
+          // The fault with its nominal offset, solved in the same condition, is the variant's
+          // fallback start and lends it its pivot plans (only the offset differs).
+          const own = nominalSolve?.(condition);
+          readings = faultyBoardReadings(variant, condition, warm.get(condition), link, undefined, own && (() => own.unknowns), own?.plans).readings;
         } catch (error) {
           if (!isSolverFailure(error)) throw error;
         }
@@ -331,11 +373,25 @@ function offsetVariants(faulty: Board, ref: string, conditions: string[], nomina
 }
 
 /**
- * What the board's circuit in a condition is, as text: its elements in order and its models. An
- * unpowered board's ohmmeter circuits are these elements with the meter added and floating nodes
- * tied, so equal keys mean equal circuits for every test point too.
+ * What the board's circuit in a condition is made of, as text: equal keys, equal circuits, so equal
+ * readings. Powered, the parts (less where they sit) and rails, every other field being the
+ * board's own for all its faults; unpowered, the circuit itself, which leaves the op-amps out, so
+ * a dead amplifier's board is the healthy one there. An unpowered board's ohmmeter circuits are its
+ * elements with the meter added and floating nodes tied (ties come last, named apart from parts),
+ * so equal keys mean equal circuits for every test point too.
  */
-function netlistKey({ circuit }: BuiltCircuit): string {
+const poweredKeys = new WeakMap<Board, string>();
+
+function circuitKey(board: Board, condition: string): string {
+  if (board.conditions.find((c) => c.id === condition)?.powered) {
+    let key = poweredKeys.get(board);
+    if (key === undefined) {
+      key = JSON.stringify([board.parts.map(({ where: _where, ...part }) => part), board.rails]);
+      poweredKeys.set(board, key);
+    }
+    return key;
+  }
+  const { circuit } = buildCircuit(board, condition);
   return JSON.stringify([circuit.elements, circuit.models]);
 }
 

@@ -9,6 +9,13 @@ export interface FaultyReadings {
   readings: Record<string, number>;
   /** The operating point they come from, by unknown name (powered conditions only). */
   unknowns?: Record<string, number>;
+  /** The pivot plans the solve left, and the matrix pattern they fit (powered conditions only). */
+  plans?: SavedPlans;
+}
+
+export interface SavedPlans {
+  pattern: Uint8Array;
+  list: ReturnType<DcSolver['engine']['lu']['savePlans']>;
 }
 
 /**
@@ -20,10 +27,13 @@ export interface FaultyReadings {
  *     asked for only here, as it may take a solve;
  *  2. when the fault is one added resistor (`link`), that resistor walked in from a value at which
  *     the board is as good as healthy (value-walk.ts).
- * Then, if neither settles, exactly measureAll's way: gmin and source stepping from the healthy
- * point with the pivot plans plain Newton left, then its fallback options from zero. Plain Newton
- * runs first and alone, so every circuit it settles lands exactly where measureAll's does, and a
- * fault settles here whenever measureAll settles it. ConvergenceError when nothing settles.
+ * Then, if neither settles, measureAll's way: gmin and source stepping from the healthy point with
+ * the pivot plans plain Newton left, then its fallback options from zero. Plain Newton runs first
+ * and alone, so every circuit it settles lands where measureAll's does, and a fault settles here
+ * whenever measureAll settles it. ConvergenceError when nothing settles.
+ * `startPlans`, pivot plans a solve of the same matrix pattern left (the same fault under another
+ * condition), spare planning the first factorisations again; they change the rounding of each
+ * step, so the answer moves within the solver's tolerance (exactly measureAll's without them).
  * Unpowered, or with no healthy point, it is measureAll itself.
  */
 export function faultyBoardReadings(
@@ -33,13 +43,19 @@ export function faultyBoardReadings(
   link: FaultLink | undefined,
   built?: BuiltCircuit,
   elsewhere?: () => Record<string, number> | undefined,
+  startPlans?: SavedPlans,
 ): FaultyReadings {
   const condition = findCondition(faulty, conditionId);
   if (!condition.powered || !warm) return { readings: measureAll(faulty, conditionId, { initial: warm }) };
   const { circuit, netNode, partElements } = built ?? buildCircuit(faulty, condition.id);
   const points = testPointsFor(faulty, condition);
   const solver = createDcSolver(circuit);
-  const settledAt = (x: Float64Array): FaultyReadings => ({ readings: readX(solver.compiled.nodeIndex, x, faulty, points, netNode), unknowns: unknownsByName(solver, x) });
+  if (startPlans && samePattern(startPlans.pattern, solver.compiled.pattern)) solver.engine.lu.restorePlans(startPlans.list);
+  const settledAt = (x: Float64Array): FaultyReadings => ({
+    readings: readX(solver.compiled.nodeIndex, x, faulty, points, netNode),
+    unknowns: unknownsByName(solver, x),
+    plans: { pattern: solver.compiled.pattern, list: solver.engine.lu.savePlans() },
+  });
   const start = startFrom(solver.compiled.unknownNames, warm);
   // solveLean is solve() without the DcSolution: the same start, strategy and convergence test.
   if (plainNewton(solver, start)) return settledAt(solver.x);
@@ -74,6 +90,12 @@ export function faultyBoardReadings(
     }
     throw last;
   }
+}
+
+function samePattern(a: Uint8Array, b: Uint8Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /** The healthy unknowns by name, zero where the faulty circuit has new ones (as solve() warm-starts). */
