@@ -1,6 +1,6 @@
 import { ACCESS_RANK, orderAt, spreadTable, type FaultDictionary } from './dictionary-model.js';
-import { entropyBits } from './posterior.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
+import { informationOf, readingClusters } from './reading-information.js';
 
 export interface NextProbe {
   testPoint: string;
@@ -56,8 +56,10 @@ function maskOf(members: number[], n: number): Uint8Array {
 }
 
 /**
- * Expected entropy of the hypotheses after reading one observable (one-step look-ahead, the
- * minimum-entropy measurement choice of de Kleer & Williams, Artificial Intelligence 32, 1987).
+ * Expected entropy of the hypotheses after reading one observable, with every prediction put in a
+ * hard bin (binsAt): a quick estimate of the minimum-entropy measurement choice of de Kleer &
+ * Williams (Artificial Intelligence 32, 1987). nextProbe weighs probes with readingInformation
+ * instead (see reading-information.ts for why); this stays as the coarse figure.
  * A hypothesis that predicts nothing there is spread evenly over the bins.
  *
  * Worked per bin from two sums, the mass T and Σ p·log2 p, since the entropy of the normalised
@@ -93,7 +95,11 @@ export function expectedEntropyAfter(dict: FaultDictionary, probabilities: numbe
   return Math.max(expected, 0);
 }
 
-/** The unmeasured observable whose reading is expected to leave the least uncertainty. */
+/**
+ * The unmeasured observable whose reading is expected to leave the least uncertainty: the greatest
+ * expected information (readingInformation), a one-step look-ahead on the minimum-entropy choice of
+ * de Kleer & Williams (1987), worked under the posterior's own likelihood.
+ */
 export function nextProbe(dict: FaultDictionary, probabilities: number[], options: ProbeOptions = {}): NextProbe | undefined {
   const meter = options.meter ?? DEFAULT_METER;
   const tie = options.tieBits ?? 0.01;
@@ -102,11 +108,23 @@ export function nextProbe(dict: FaultDictionary, probabilities: number[], option
   const most = Math.max(...probabilities);
   const live = probabilities.map((p, i) => (p > most * 1e-9 ? i : -1)).filter((i) => i >= 0);
   const total = live.reduce((a, i) => a + probabilities[i], 0);
-  const now = entropyBits(live.map((i) => probabilities[i] / total));
   const normalised = probabilities.map((p) => p / total);
-  const gains = dict.observables.map((_, index) =>
-    options.measured?.has(index) ? -Infinity : now - expectedEntropyAfter(dict, normalised, index, meter, live),
-  );
+  const mask = new Uint8Array(probabilities.length);
+  for (const i of live) mask[i] = 1;
+  const gains = new Array<number>(dict.observables.length).fill(-Infinity);
+  // No reading tells more than the entropy of what it could tell apart: working through the
+  // observables from the highest such bound, the rest are skipped once the bound falls below the best
+  // information found (less the tie margin, so every probe that could tie is still weighed).
+  const candidates = dict.observables
+    .map((_, index) => (options.measured?.has(index) ? undefined : { index, clusters: readingClusters(dict, normalised, index, meter, mask) }))
+    .filter((c) => c !== undefined)
+    .sort((a, b) => b.clusters.bound - a.clusters.bound);
+  let found = -Infinity;
+  for (const { index, clusters } of candidates) {
+    if (clusters.bound < found - tie) break;
+    gains[index] = informationOf(clusters);
+    if (gains[index] > found) found = gains[index];
+  }
   const top = Math.max(...gains);
   if (!(top >= minimum)) return undefined;
   // Among probes within `tie` of the best, the one least trouble to take.
