@@ -8,6 +8,7 @@ import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/er
 import { applyFault, faultLink, type FaultLink } from './apply-fault.js';
 import { faultyBoardReadings, type FaultyReadings, type SavedPlans } from './faulty-board-readings.js';
 import { faultyOhmmeterReadings, healthyOhmmeterPoints } from './ohmmeter-readings.js';
+import { ConditionSolvers } from './condition-solvers.js';
 import { DEFAULT_NO_FAULT_PRIOR } from './fault-modes.js';
 import type { Fault } from './fault.js';
 import { faultsFor } from './faults-for.js';
@@ -157,7 +158,15 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
   }
   /** The faulty board's readings in a condition, through the netlist cache. */
   const ohmmeterPoints = new Map<string, Map<string, DcSolution>>();
-  const solveIn = (faulty: Board, condition: string, initial: DcSolution | undefined, link: FaultLink | undefined, elsewhere?: () => Record<string, number> | undefined, plans?: SavedPlans) => {
+  const solveIn = (
+    faulty: Board,
+    condition: string,
+    initial: DcSolution | undefined,
+    link: FaultLink | undefined,
+    elsewhere?: () => Record<string, number> | undefined,
+    plans?: SavedPlans,
+    solvers?: ConditionSolvers,
+  ) => {
     const key = circuitKey(faulty, condition);
     const seen = solved.get(condition)!;
     if (seen.has(key)) return seen.get(key);
@@ -167,7 +176,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
         if (!ohmmeterPoints.has(condition)) ohmmeterPoints.set(condition, healthyOhmmeterPoints(board, condition));
         solution = { readings: faultyOhmmeterReadings(faulty, condition, ohmmeterPoints.get(condition)!) };
       } else {
-        solution = faultyBoardReadings(faulty, condition, initial, link, undefined, elsewhere, plans);
+        solution = faultyBoardReadings(faulty, condition, initial, link, undefined, elsewhere, plans, solvers);
       }
     } catch (error) {
       if (!isSolverFailure(error)) throw error;
@@ -181,6 +190,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
   faults.forEach((fault, i) => {
     let faulty: Board | undefined;
     let link: FaultLink | undefined;
+    let solvers: ConditionSolvers | undefined;
     // The fault solved under a condition other conditions start from (see startingConditions).
     const solvedAt = new Map<string, FaultyReadings>();
     const at = (condition: string): FaultyReadings => {
@@ -188,7 +198,8 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
       if (!solution) {
         const from = starts.get(condition);
         const other = from && at(from.condition);
-        solution = solveIn(faulty!, condition, starts.warm(condition), link, other && (() => other.unknowns), from?.plans ? other?.plans : undefined) ?? { readings: {} };
+        solvers ??= new ConditionSolvers(faulty!);
+        solution = solveIn(faulty!, condition, starts.warm(condition), link, other && (() => other.unknowns), from?.plans ? other?.plans : undefined, solvers) ?? { readings: {} };
         solvedAt.set(condition, solution);
       }
       return solution;
@@ -348,6 +359,7 @@ function offsetVariants(
       parts: faulty.parts.map((p) => (p === part ? { ...p, model: shifted } : p)),
     };
     const predictions: number[] = [];
+    const solvers = new ConditionSolvers(variant);
     let at = 0;
     for (const condition of conditions) {
       const points = testPointsFor(board, condition);
@@ -360,7 +372,7 @@ function offsetVariants(
           // The fault with its nominal offset, solved in the same condition, is the variant's
           // fallback start and lends it its pivot plans (only the offset differs).
           const own = nominalSolve?.(condition);
-          readings = faultyBoardReadings(variant, condition, warm.get(condition), link, undefined, own && (() => own.unknowns), own?.plans).readings;
+          readings = faultyBoardReadings(variant, condition, warm.get(condition), link, undefined, own && (() => own.unknowns), own?.plans, solvers).readings;
         } catch (error) {
           if (!isSolverFailure(error)) throw error;
         }

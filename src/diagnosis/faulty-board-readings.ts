@@ -4,6 +4,7 @@ import { ConvergenceError, createDcSolver, solveDC, type DcSolution, type DcSolv
 import { ELSEWHERE_ITERATIONS, plainNewton, startOver, unknownsByName } from './newton-attempt.js';
 import type { FaultLink } from './apply-fault.js';
 import { walkValue } from './value-walk.js';
+import type { ConditionSolvers } from './condition-solvers.js';
 
 export interface FaultyReadings {
   readings: Record<string, number>;
@@ -34,6 +35,7 @@ export interface SavedPlans {
  * `startPlans`, pivot plans a solve of the same matrix pattern left (the same fault under another
  * condition), spare planning the first factorisations again; they change the rounding of each
  * step, so the answer moves within the solver's tolerance (exactly measureAll's without them).
+ * `solvers` hands out one compiled solver for conditions alike but for knob positions and volts.
  * Unpowered, or with no healthy point, it is measureAll itself.
  */
 export function faultyBoardReadings(
@@ -44,12 +46,14 @@ export function faultyBoardReadings(
   built?: BuiltCircuit,
   elsewhere?: () => Record<string, number> | undefined,
   startPlans?: SavedPlans,
+  solvers?: ConditionSolvers,
 ): FaultyReadings {
   const condition = findCondition(faulty, conditionId);
   if (!condition.powered || !warm) return { readings: measureAll(faulty, conditionId, { initial: warm }) };
-  const { circuit, netNode, partElements } = built ?? buildCircuit(faulty, condition.id);
+  const circuitBuilt = built ?? buildCircuit(faulty, condition.id);
+  const { circuit, netNode, partElements } = circuitBuilt;
   const points = testPointsFor(faulty, condition);
-  const solver = createDcSolver(circuit);
+  const solver = solvers ? solvers.solverFor(condition.id, circuitBuilt) : createDcSolver(circuit);
   if (startPlans && samePattern(startPlans.pattern, solver.compiled.pattern)) solver.engine.lu.restorePlans(startPlans.list);
   const settledAt = (x: Float64Array): FaultyReadings => ({
     readings: readX(solver.compiled.nodeIndex, x, faulty, points, netNode),
