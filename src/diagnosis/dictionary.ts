@@ -57,7 +57,8 @@ export interface BuiltDictionary extends FaultDictionary {
  * solved on the healthy circuit compiled once per condition, with the value written in place
  * (value-fault-solver.ts). Where plain Newton from the healthy point fails (about one faulty
  * circuit in eight on the demo board), the fault's own operating point under another condition
- * fixed by the board is tried as the start (startingConditions), then the faulted resistor is
+ * fixed by the board is tried as the start (startingConditions; first, when plain Newton did not
+ * settle the fault there either), then the faulted resistor is
  * walked in from its healthy value (value-walk.ts), and only then the solver's gmin and source
  * stepping (faulty-board-readings.ts). A circuit already solved in a condition (circuitKey) is not
  * solved again.
@@ -166,6 +167,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
     elsewhere?: () => Record<string, number> | undefined,
     plans?: SavedPlans,
     solvers?: ConditionSolvers,
+    elsewhereFirst?: boolean,
   ) => {
     const key = circuitKey(faulty, condition);
     const seen = solved.get(condition)!;
@@ -176,7 +178,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
         if (!ohmmeterPoints.has(condition)) ohmmeterPoints.set(condition, healthyOhmmeterPoints(board, condition));
         solution = { readings: faultyOhmmeterReadings(faulty, condition, ohmmeterPoints.get(condition)!) };
       } else {
-        solution = faultyBoardReadings(faulty, condition, initial, link, undefined, elsewhere, plans, solvers);
+        solution = faultyBoardReadings(faulty, condition, initial, link, undefined, elsewhere, plans, solvers, elsewhereFirst);
       }
     } catch (error) {
       if (!isSolverFailure(error)) throw error;
@@ -199,7 +201,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
         const from = starts.get(condition);
         const other = from && at(from.condition);
         solvers ??= new ConditionSolvers(faulty!);
-        solution = solveIn(faulty!, condition, starts.warm(condition), link, other && (() => other.unknowns), from?.plans ? other?.plans : undefined, solvers) ?? { readings: {} };
+        solution = solveIn(faulty!, condition, starts.warm(condition), link, other && (() => other.unknowns), from?.plans ? other?.plans : undefined, solvers, other?.fromHealthy === false) ?? { readings: {} };
         solvedAt.set(condition, solution);
       }
       return solution;
