@@ -18,7 +18,7 @@ import { DEFAULT_OUTLIER, OUTLIER_SCALE } from './posterior.js';
  * I(H; Y) = Σ_c p_c ∫ q_c(y) log(q_c(y) / m(y)) dy, m = Σ_c p_c q_c, over clusters c of hypotheses
  * predicting (nearly) the same spread here: the reading cannot move mass between members of a
  * cluster, so the members add nothing, and at most test points most faults predict the healthy
- * value, which keeps the sum short. The integral is a 7-node Gauss–Hermite rule on each cluster's
+ * value, which keeps the sum short. The integral is a 5-node Gauss–Hermite rule on each cluster's
  * Gaussian part; the outlier part is left out of the integral (a reading no one foresaw tells
  * hypotheses apart only weakly) but kept in the densities, so no reading is worth more than the
  * posterior would make of it. A hypothesis predicting nothing here (NaN) has a flat density over the
@@ -111,7 +111,8 @@ export function informationOf(clusters: ReadingClusters, outlier: number = DEFAU
   }
   let information = 0;
   for (let c = 0; c < count; c++) {
-    if (!(mass[c] > 0)) continue;
+    // A cluster adds at most p·log2(1/p) bits: below a millionth that is under 2e-5 bits.
+    if (!(mass[c] > 1e-6)) continue;
     let expectation = 0;
     for (let k = 0; k < NODES.length; k++) {
       const y = centre[c] + Math.SQRT2 * sigma[c] * NODES[k];
@@ -135,8 +136,6 @@ export function informationOf(clusters: ReadingClusters, outlier: number = DEFAU
 const MERGE = 0.25;
 const OUTLIER_SQUARED = OUTLIER_SCALE * OUTLIER_SCALE;
 const SQRT_2PI = Math.sqrt(2 * Math.PI);
-/** Gauss–Hermite nodes and weights for 7 points (Abramowitz & Stegun, table 25.10), weights divided by √π. */
-const NODES = [-2.651961356835233, -1.673551628767471, -0.816287882858965, 0, 0.816287882858965, 1.673551628767471, 2.651961356835233];
-const WEIGHTS = [0.0009717812450995, 0.05451558281913, 0.4256072526101, 0.8102646175568, 0.4256072526101, 0.05451558281913, 0.0009717812450995].map(
-  (w) => w / Math.sqrt(Math.PI),
-);
+/** Gauss–Hermite nodes and weights for 5 points (Abramowitz & Stegun, table 25.10), weights divided by √π. */
+const NODES = [-2.020182870456086, -0.958572464613819, 0, 0.958572464613819, 2.020182870456086];
+const WEIGHTS = [0.019953242059046, 0.393619323152241, 0.945308720482942, 0.393619323152241, 0.019953242059046].map((w) => w / Math.sqrt(Math.PI));
