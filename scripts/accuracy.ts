@@ -5,8 +5,9 @@
  * tolerance is drawn at random (seeded: the same spreads the bands use), the readings a meter would
  * show are simulated with the meter's error added (uniform within ±(0.5 % + 2 counts)), and the tool
  * takes probes as it would with a person: starting from its own first suggestion, following `next`
- * until the leading ambiguity group holds ≥ 90 % or the probe budget runs out. Reported: top-1 and
- * top-3 hit rates and the mean number of probes, overall and per fault mode.
+ * until the leading ambiguity group holds ≥ 95 % or the probe budget runs out. Reported: top-1 and
+ * top-3 hit rates and the mean number of probes, overall and per fault mode, and how long each
+ * ranking took (the UI ranks after every reading).
  *
  * Only distinguishable faults count in the headline: those no reading in play confuses with another
  * candidate or with a healthy board. The rest are counted and said why.
@@ -75,6 +76,8 @@ interface Skipped {
 
 const trials: Trial[] = [];
 const skipped: Skipped[] = [];
+/** Milliseconds per call of rankSuspects during the walks (the dictionary already built). */
+const rankTimes: number[] = [];
 const started = performance.now();
 
 for (const file of files) {
@@ -132,11 +135,17 @@ function simulate(faulty: Board, dict: BuiltDictionary, rng: ReturnType<typeof c
 /** The tool choosing probes: its own first suggestion, then `next` until isolated or out of budget. */
 function walk(board: Board, dict: BuiltDictionary, truth: Map<string, number>, faultId: string, budget: number) {
   const readings: Reading[] = [];
-  let result = rankSuspects(board, readings, { dictionary: dict, limit: 3 });
+  const rank = () => {
+    const t = performance.now();
+    const ranked = rankSuspects(board, readings, { dictionary: dict, limit: 3 });
+    rankTimes.push(performance.now() - t);
+    return ranked;
+  };
+  let result = rank();
   while (result.next && readings.length < budget) {
     const { testPoint, condition } = result.next;
     readings.push({ testPoint, condition, value: truth.get(`${condition}:${testPoint}`)! });
-    result = rankSuspects(board, readings, { dictionary: dict, limit: 3 });
+    result = rank();
     if ((result.groups[0]?.probability ?? 0) >= ISOLATED) break;
   }
   const ids = result.suspects.map((s) => s.id);
@@ -175,6 +184,9 @@ const count = (why: Skipped['why']) => skipped.filter((s) => s.why === why).leng
 lines.push(`- Not in the headline: ${count('looks healthy')} faults no test point under any condition tells from a healthy board (e.g. a short across a part no test point sees); ${count('twin')} that some other candidate mimics at every test point (reported as one ambiguity group); ${count('unpredictable')} whose circuit the solver could not settle under some condition; ${count('truth unsolvable')} whose randomly toleranced board did not solve.`);
 const twins = skipped.filter((s) => s.why === 'twin');
 if (twins.length) lines.push(`  Of the ${twins.length} with a mimic, ${pct(twins.filter((s) => s.inLeadingGroup).length, twins.length)} end with their group ranked first.`);
+const sorted = [...rankTimes].sort((a, b) => a - b);
+const quantile = (q: number) => sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))] ?? 0;
+lines.push(`- Ranking, once per reading: median ${quantile(0.5).toFixed(1)} ms, 90th percentile ${quantile(0.9).toFixed(1)} ms over ${sorted.length} rankings.`);
 const healthyModes = [...new Set(skipped.filter((s) => s.why === 'looks healthy').map((s) => s.mode))];
 if (healthyModes.length) lines.push(`  Modes among the look-healthy ones: ${healthyModes.join(', ')}.`);
 if (values['show-misses']) {
