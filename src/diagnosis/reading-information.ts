@@ -122,7 +122,7 @@ export function informationOf(clusters: ReadingClusters, outlier: number = DEFAU
       for (let j = 0; j < count; j++) {
         const z = (y - centre[j]) * inverse[j];
         const z2 = z * z;
-        // Beyond 8 σ a Gaussian is under 1e-14 of its peak: the outlier part is all that is left.
+        // Beyond 8 σ a Gaussian is about 1e-14 of its peak: the outlier part is all that is left.
         mixture += (z2 < 64 ? gaussWeight[j] * Math.exp(-0.5 * z2) : 0) + cauchyWeight[j] / (1 + z2 / OUTLIER_SQUARED);
       }
       // `own` and `mixture` both carry the cluster's probability where the formula has it once.
