@@ -193,6 +193,13 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
     let faulty: Board | undefined;
     let link: FaultLink | undefined;
     let solvers: ConditionSolvers | undefined;
+    const faultyBoard = () => {
+      if (!faulty) {
+        faulty = applyFault(board, fault);
+        link = faultLink(board, faulty, fault);
+      }
+      return faulty;
+    };
     // The fault solved under a condition other conditions start from (see startingConditions).
     const solvedAt = new Map<string, FaultyReadings>();
     const at = (condition: string): FaultyReadings => {
@@ -200,8 +207,8 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
       if (!solution) {
         const from = starts.get(condition);
         const other = from && at(from.condition);
-        solvers ??= new ConditionSolvers(faulty!);
-        solution = solveIn(faulty!, condition, starts.warm(condition), link, other && (() => other.unknowns), from?.plans ? other?.plans : undefined, solvers, other?.fromHealthy === false) ?? { readings: {} };
+        solvers ??= new ConditionSolvers(faultyBoard());
+        solution = solveIn(faultyBoard(), condition, starts.warm(condition), link, other && (() => other.unknowns), from?.plans ? other?.plans : undefined, solvers, other?.fromHealthy === false) ?? { readings: {} };
         solvedAt.set(condition, solution);
       }
       return solution;
@@ -214,11 +221,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
         predictions.push(...fast);
         continue;
       }
-      if (!faulty) {
-        faulty = applyFault(board, fault);
-        link = faultLink(board, faulty, fault);
-      }
-      const readings = warm.get(condition) ? at(condition).readings : solveIn(faulty, condition, undefined, link)?.readings;
+      const readings = warm.get(condition) ? at(condition).readings : solveIn(faultyBoard(), condition, undefined, link)?.readings;
       const settled = readings && Object.keys(readings).length === testPointsFor(board, condition).length;
       if (!settled) unsettled.set(fault.id, [...(unsettled.get(fault.id) ?? []), condition]);
       for (const tp of testPointsFor(board, condition)) predictions.push(settled ? readings[tp.id] : NaN);

@@ -1,5 +1,5 @@
 import type { DcSolver } from '../circuit/index.js';
-import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
+import { isSolverFailure } from './newton-attempt.js';
 
 /**
  * Continuation in the fault itself. A faulty board is one change away from a healthy board whose
@@ -14,9 +14,10 @@ import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/er
  */
 
 /**
- * Step control, tuned on the demo board's value and link faults (Newton iterations after a failed
- * plain Newton, all 13 powered conditions: about 106k with gmin stepping alone, 86k with these
- * figures; doubling steps, a 1-decade first step or 40 iterations per step each did worse).
+ * Step control, tuned on the demo board's value and link faults with the walk as the only step
+ * between plain Newton and gmin stepping (Newton iterations after a failed plain Newton, all 13
+ * powered conditions: 106k with gmin stepping alone, 86k with these figures; doubling steps, a
+ * 1-decade first step or 40 iterations per step each did worse).
  */
 /** First step, in decades of the walked value. */
 const FIRST_STEP_DECADES = 0.25;
@@ -40,8 +41,6 @@ export interface WalkOutcome {
   steps: number;
   failedSteps: number;
 }
-
-const isSolverFailure = (error: unknown) => error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError;
 
 /**
  * Walks an element's value from `from` to `to` (both > 0, ohms or whatever `set` takes), starting
