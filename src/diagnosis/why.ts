@@ -2,13 +2,13 @@ import { formatValue } from '../units/index.js';
 import { NO_FAULT, spreadOf, toDomain, type FaultDictionary, type Hypothesis, type Reading } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
-/** A reading as a person sees it on the meter: volts to 3 figures, ohms, or OL past the top range. */
-export function showReading(value: number, unit: 'V' | 'Ω', meter: MeterSpec = DEFAULT_METER): string {
+/** A reading as a person sees it on the meter: volts to 3 figures (or as many as asked), ohms, or OL past the top range. */
+export function showReading(value: number, unit: 'V' | 'Ω', meter: MeterSpec = DEFAULT_METER, figures = 3): string {
   if (unit === 'Ω' && !(value < meter.maxOhms)) return 'OL (open)';
   // Below the meter's last digit on its smallest range a value is a zero on the display, not picovolts.
   const resolution = (unit === 'V' ? 0.2 : 200) / meter.fullScale * (meter.fullScale / 2000);
   if (Math.abs(value) < resolution / 2) return formatValue(0, unit);
-  return formatValue(value, unit, 3);
+  return formatValue(value, unit, figures);
 }
 
 /**

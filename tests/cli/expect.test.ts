@@ -74,3 +74,13 @@ describe('voltwalk expect', () => {
     expect(io.err()).toMatch(/no such file/);
   });
 });
+
+describe('voltwalk expect on the demo board', () => {
+  it('words a narrow rail band with enough figures to keep its ends apart', async () => {
+    const io = memoryIo();
+    expect(await run(['expect', '--condition', 'quiescent', '--samples', '0'], io)).toBe(0);
+    // The +12 V rail after its protection diode spans about 11.74 V to 11.80 V: three figures
+    // would print "11.7 V … 11.8 V", and a reading of 11.70 V would look inside it.
+    expect(io.out()).toMatch(/TP1 +\+12 V rail after D1 +11\.77 V +11\.74 V … 11\.8 V/);
+  }, 120_000);
+});

@@ -5,7 +5,8 @@ import { parseOptions } from '../args.js';
 import { UsageError } from '../../errors.js';
 import { DEMO_BOARD_FILE, loadBoard } from '../../board/index.js';
 import { expectReport, type Band } from '../../circuit/analysis/index.js';
-import { showReading } from '../../diagnosis/index.js';
+import { DEFAULT_METER, showReading } from '../../diagnosis/index.js';
+import { bandFigures } from '../../units/index.js';
 import type { Board } from '../../schemas/board.js';
 
 const HELP = `Usage: voltwalk expect [--board FILE] [--condition NAME] [--set REF=VALUE]... [--samples N] [--seed N] [--json]
@@ -112,7 +113,13 @@ function jsonBand(b: Band) {
 }
 
 /** Values as the meter would show them (the same rule as the walk's screens). */
-const show = (v: number, unit: 'V' | 'Ω') => showReading(v, unit);
+const show = (v: number, unit: 'V' | 'Ω', figures?: number) => showReading(v, unit, DEFAULT_METER, figures);
+
+/** A band's two ends with enough figures to keep them apart (11.74 V … 11.8 V, not 11.7 V … 11.8 V). */
+const showBand = (lo: number, hi: number, unit: 'V' | 'Ω') => {
+  const figures = bandFigures(lo, hi);
+  return `${show(lo, unit, figures)} … ${show(hi, unit, figures)}`;
+};
 
 function table(board: Board, bands: Band[], samples: number, seed: number, subs: Record<string, string>): string {
   const lines: string[] = [`${board.name}: expected readings`];
@@ -127,9 +134,9 @@ function table(board: Board, bands: Band[], samples: number, seed: number, subs:
     const cells = rows.map((b) => [
       b.id,
       labels.get(b.id) ?? '',
-      show(b.nominal, b.unit),
-      `${show(b.min, b.unit)} … ${show(b.max, b.unit)}`,
-      b.mcLow !== undefined ? `${show(b.mcLow, b.unit)} … ${show(b.mcHigh!, b.unit)}` : '',
+      show(b.nominal, b.unit, bandFigures(b.min, b.max)),
+      showBand(b.min, b.max, b.unit),
+      b.mcLow !== undefined ? showBand(b.mcLow, b.mcHigh!, b.unit) : '',
     ]);
     const head = ['TP', 'where', 'expect', 'healthy band', samples > 0 ? '99 % of boards' : ''];
     const widths = head.map((h, i) => Math.max(h.length, ...cells.map((c) => c[i].length)));
