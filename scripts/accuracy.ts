@@ -88,7 +88,6 @@ for (const file of files) {
   console.error(`${board.id}: dictionary of ${dict.faults.length} faults × ${new Set(dict.observables.map((o) => o.condition)).size} conditions in ${((performance.now() - t0) / 1000).toFixed(0)} s${dict.skippedConditions.length ? `; left out: ${dict.skippedConditions.join(', ')}` : ''}`);
   const candidates = dict.hypotheses.length;
   const budget = Number(values.budget ?? Math.ceil(Math.log2(candidates)) + 3);
-  const rng = createRng(seed);
   dict.faults.forEach((fault, k) => {
     const h = k + 1;
     if (k % 50 === 0) console.error(`  ${board.id}: fault ${k} of ${dict.faults.length}, ${((performance.now() - t0) / 1000).toFixed(0)} s`);
@@ -97,12 +96,27 @@ for (const file of files) {
     if (hyp.predictions.some(Number.isNaN)) return skipped.push({ ...base, why: 'unpredictable' });
     if (!distinguishable(dict, h, 0)) return skipped.push({ ...base, why: 'looks healthy' });
     const twins = dict.hypotheses.filter((_, j) => j !== h && j !== 0 && !distinguishable(dict, h, j)).map((t) => t.id);
-    const truth = simulate(applyFault(board, fault), dict, rng);
+    const truth = simulate(applyFault(board, fault), dict, createRng(drawSeed(seed, board.id, fault.id)));
     if (!truth) return skipped.push({ ...base, why: 'truth unsolvable' });
     const trial = walk(board, dict, truth, fault.id, budget);
     if (twins.length > 0) skipped.push({ ...base, why: 'twin', twins, inLeadingGroup: trial.inLeadingGroup });
     else trials.push({ ...base, ...trial, candidates });
   });
+}
+
+/**
+ * Each fault's simulated board has draws of its own, keyed by the seed, the board and the fault: with
+ * one stream shared by all faults, a fault that became predictable (or stopped being) would shift
+ * the draws of every fault after it, and two versions of the tool could not be compared fault by
+ * fault. FNV-1a over the key's characters (32-bit).
+ */
+function drawSeed(seed: number, board: string, fault: string): number {
+  let h = 0x811c9dc5;
+  for (const ch of `${seed}\u0000${board}\u0000${fault}`) {
+    h ^= ch.codePointAt(0)!;
+    h = Math.imul(h, 0x01000193) >>> 0;
+  }
+  return h;
 }
 
 /** Every reading at every observable of the dictionary, for a board with drawn tolerances and meter error. */
