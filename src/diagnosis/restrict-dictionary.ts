@@ -3,9 +3,10 @@ import type { Hypothesis } from './dictionary-model.js';
 
 /**
  * The part of a built dictionary that covers only some conditions, taken from one built for more
- * without solving anything: each condition's predictions are solved on their own (circuits, warm
- * starts and pivot plans are per condition), so they are the numbers buildDictionary would give for
- * those conditions alone, in the order asked for. The walk keeps its ranking to the conditions its
+ * without solving anything: a condition's predictions never depend on which other conditions are
+ * in the build (a faulty circuit that needs another start takes it from one fixed condition of the
+ * board, solved whether or not it was asked for), so they are the numbers buildDictionary would give
+ * for those conditions alone, in the order asked for. The walk keeps its ranking to the conditions its
  * tree measures in; when the whole board's dictionary is already built (the terminal app builds it
  * in the background), this saves building a second one for those conditions.
  *
