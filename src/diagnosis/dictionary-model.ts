@@ -44,7 +44,7 @@ export interface Hypothesis {
   /**
    * Other predictions the same fault may give, same layout as `predictions`, for a fault whose
    * readings hang on something the nominal models leave at zero (the sign of an op-amp's input
-   * offset when the fault joins its inputs). Which one holds is the same for every reading, so the
+   * offset when the fault leaves it open loop). Which one holds is the same for every reading, so the
    * ranking weighs each vector whole. `distinguishable` (and so what `npm run accuracy` counts as
    * distinguishable) goes by `predictions` alone; ambiguity groups look at every vector.
    */

@@ -213,7 +213,7 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
       }
       return solution;
     };
-    if (joinsInputs(board, fault)) nominalSolves.set(i, at);
+    if (balancedAmplifier(board, fault)) nominalSolves.set(i, at);
     const predictions: number[] = [];
     for (const condition of conditions) {
       const fast = quick.get(condition)?.[i];
@@ -229,9 +229,10 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
     hypotheses.push({ id: fault.id, part: fault.part, mode: fault.mode, fault: fault.fault, prior: fault.prior, predictions });
   });
   faults.forEach((fault, i) => {
-    if (!joinsInputs(board, fault)) return;
+    const amplifier = balancedAmplifier(board, fault);
+    if (!amplifier) return;
     const faulty = applyFault(board, fault);
-    const variants = offsetVariants(faulty, fault.part, conditions, hypotheses[i + 1].predictions, board, warm, faultLink(board, faulty, fault), nominalSolves.get(i));
+    const variants = offsetVariants(faulty, amplifier, conditions, hypotheses[i + 1].predictions, board, warm, faultLink(board, faulty, fault), nominalSolves.get(i));
     if (variants) hypotheses[i + 1].variants = variants;
   });
 
@@ -323,14 +324,37 @@ function startingConditions(board: Board, warm: Map<string, DcSolution | undefin
 }
 
 /**
- * A bridge between one amplifier's two inputs leaves it with no difference to amplify but its own
- * input offset: with nominal models (offset at its nominal value) the output sits wherever the
- * balance puts it, while a real part, with an offset a few millivolts either way, drives it to one
- * rail or the other. Such a fault gets two more prediction vectors, the package's offset at either end
- * of its stated spread (vosMax). Only these faults: solving every fault three times would triple the
- * dictionary's build. An open or shorted feedback resistor can leave an amplifier open loop on a
- * balance too; those stay nominal, as finding them would take a solve per fault.
+ * The amplifier a fault leaves open loop, its output hanging on its own input offset: a bridge
+ * between its two inputs (no difference left to amplify), a resistor from its output to its − input
+ * gone open (no feedback left), or a resistor from its − input to anywhere but its output shorted
+ * (the − input pinned, as in a comparator). With nominal models (offset at its nominal value) such an
+ * output sits wherever the balance puts it, while a real part, with an offset a few millivolts either
+ * way, drives it to one rail or the other. These faults get two more prediction vectors, the
+ * package's offset at either end of its stated spread (vosMax). Only these: solving every fault three
+ * times would triple the dictionary's build. Found from the netlist alone, so a fault whose amplifier
+ * keeps another feedback path (a diode, say) gets variants too; they then differ from its nominal
+ * prediction by the offset's own small effect, which changes nothing in the ranking.
  */
+function balancedAmplifier(board: Board, fault: Fault): string | undefined {
+  if (joinsInputs(board, fault)) return fault.part;
+  if (fault.mode !== 'open' && fault.mode !== 'short') return undefined;
+  const part = board.parts.find((p) => p.ref === fault.part);
+  if (part?.kind !== 'resistor') return undefined;
+  const nets = Object.values(part.pins);
+  if (nets.length !== 2) return undefined;
+  for (const amp of board.parts) {
+    const pkg = OPAMP_PACKAGES[amp.kind];
+    for (const a of pkg?.amplifiers ?? []) {
+      const minus = amp.pins[a.minus];
+      const out = amp.pins[a.out];
+      if (!nets.includes(minus)) continue;
+      const other = nets[0] === minus ? nets[1] : nets[0];
+      if (fault.mode === 'open' ? other === out : other !== out) return amp.ref;
+    }
+  }
+  return undefined;
+}
+
 function joinsInputs(board: Board, fault: Fault): boolean {
   if (fault.mode !== 'bridge' || !fault.pins) return false;
   const part = board.parts.find((p) => p.ref === fault.part);
