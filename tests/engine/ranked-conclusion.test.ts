@@ -3,6 +3,7 @@ import { loadBoard, measureAll } from '../../src/board/index.js';
 import { applyFault, buildDictionary, clearDictionaryCache, dictionaryReady, faultsFor } from '../../src/diagnosis/index.js';
 import { findTree, walkFromAnswers, formatTranscriptText } from '../../src/engine/index.js';
 import { BOARDS_DIR } from '../../src/paths.js';
+import type { Board } from '../../src/schemas/board.js';
 import { join } from 'node:path';
 import { mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -15,16 +16,7 @@ describe('conclusion with ranked suspects', () => {
     const fault = faultsFor(board).find((f) => f.id === 'D1/reversed')!;
     const faulty = applyFault(board, fault);
     const tree = findTree('first-power-up');
-    const answers: Record<string, string | boolean> = { 'current-limit': 'no' };
-    for (const [id, n] of Object.entries(tree.nodes)) {
-      if (n.kind === 'caution' || n.kind === 'setup') answers[id] = true;
-      else if (n.kind === 'inspect') answers[id] = 'ok';
-      else if (n.kind === 'measure') {
-        const v = measureAll(faulty, board.roles.conditions[n.condition]!)[board.roles.testPoints[n.testPoint]!];
-        answers[id] = Number.isFinite(v) ? v.toPrecision(4) : 'OL';
-      }
-    }
-    const t = walkFromAnswers(tree, board, answers, { samples: 0 });
+    const t = walkFromAnswers(tree, board, answersReadOn(faulty, tree, board), { samples: 0 });
     const c = t.current.conclusion!;
     expect(c.parts.map((p) => p.ref)).toContain('D1');
     expect(c.suspects?.length).toBeGreaterThan(0);
@@ -36,7 +28,7 @@ describe('conclusion with ranked suspects', () => {
     clearDictionaryCache();
     const board = loadBoard(join(BOARDS_DIR, 'wenlow-nib.json'));
     const tree = findTree('first-power-up');
-    const answers = healthyAnswers(tree, board);
+    const answers = answersReadOn(board, tree, board);
     const walked = walkFromAnswers(tree, board, answers, { samples: 0 });
     // The ranking covers the conditions of the tree's measure steps, in the tree's order.
     const conditions = [...new Set(Object.values(tree.nodes).flatMap((n) => (n.kind === 'measure' ? [board.roles.conditions[n.condition]!] : [])))];
@@ -68,13 +60,14 @@ describe('conclusion with ranked suspects', () => {
   }, 300_000);
 });
 
-function healthyAnswers(tree: ReturnType<typeof findTree>, board: ReturnType<typeof loadBoard>): Record<string, string | boolean> {
+/** Every step answered as a person would on `measured`: cautions read, parts looking right, readings as the solver predicts them. */
+function answersReadOn(measured: Board, tree: ReturnType<typeof findTree>, board: Board): Record<string, string | boolean> {
   const answers: Record<string, string | boolean> = { 'current-limit': 'no' };
   for (const [id, n] of Object.entries(tree.nodes)) {
     if (n.kind === 'caution' || n.kind === 'setup') answers[id] = true;
     else if (n.kind === 'inspect') answers[id] = 'ok';
     else if (n.kind === 'measure') {
-      const v = measureAll(board, board.roles.conditions[n.condition]!)[board.roles.testPoints[n.testPoint]!];
+      const v = measureAll(measured, board.roles.conditions[n.condition]!)[board.roles.testPoints[n.testPoint]!];
       answers[id] = Number.isFinite(v) ? v.toPrecision(4) : 'OL';
     }
   }
