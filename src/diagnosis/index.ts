@@ -9,7 +9,7 @@ export type { Fault } from './fault.js';
 export { NO_FAULT, ACCESS_RANK, observableKey, type FaultDictionary, type Hypothesis, type Observable, type Reading, type Access } from './dictionary-model.js';
 export { posterior, entropyBits, logLikelihood } from './posterior.js';
 export { nextProbe, expectedEntropyAfter, type NextProbe } from './next-probe.js';
-export { ambiguityGroups, distinguishable } from './ambiguity.js';
+export { ambiguityGroups, distinguishable, separable } from './ambiguity.js';
 export { DEFAULT_METER, meterAccuracy, type MeterSpec } from './meter.js';
 export { colourMisreads, type Misread } from './colour-misreads.js';
 export { legOrderOf, pinLanding, type LegOrder } from './transistor-pinouts.js';
