@@ -281,7 +281,8 @@ function solveAlongPath(setup: Setup, deviations: PartDeviation[], u: Float64Arr
  * deviation moves by more than SLOPE_FLOOR per unit. A deviation moves most unknowns of a circuit
  * by far less (on the demo board 60 % of entries are below it), and leaving them out of the start
  * moves it by at most SLOPE_FLOOR × (number of deviations) — on the demo board under 1e-7 V, a tenth
- * of VNTOL: Newton's answer does not depend on a start that close, and the sum costs a third.
+ * of VNTOL: a start that close moves Newton's answer by far less than its tolerance, and the sum
+ * costs a third of what the dense one did.
  */
 interface Slopes {
   /** Setter k's entries are at start[k] … start[k+1]−1 of index/up/down. */
