@@ -124,8 +124,11 @@ export function createDcSolver(circuit: Circuit): DcSolver {
 
   function sourceStepping(opts: ResolvedDcOptions): { outcome: NewtonOutcome; iterations: number } {
     let iterations = 0;
+    // With every source at zero the answer is all zeros, exactly: start there, junctions included.
+    // Seeding the junctions at their critical voltage instead (as a cold Newton does) gives a first
+    // step of volts from nothing, which two transistors wired as a latch can then bounce on forever.
     x.fill(0);
-    seedFrom(null);
+    seedFrom(x);
     let scale = 0;
     let outcome = engine.run(x, opts, 0, 0);
     iterations += outcome.iterations;
@@ -168,6 +171,14 @@ export function createDcSolver(circuit: Circuit): DcSolver {
     let total = 0;
     let last: NewtonOutcome | null = null;
     let lastStrategy = 'none';
+    // Every strategy's unsettled unknowns, not only the last one's: each fails somewhere else (source
+    // stepping, starting from the exact zero answer, may stall on a source current where plain
+    // Newton left a diode's node moving), and the person needs to see where to look.
+    const unsettled = new Set<number>();
+    const failed = (outcome: NewtonOutcome) => {
+      for (const i of outcome.unsettled) unsettled.add(i);
+      return outcome;
+    };
 
     if (!opts.skip.has('newton')) {
       x.set(start);
@@ -175,26 +186,26 @@ export function createDcSolver(circuit: Circuit): DcSolver {
       const outcome = engine.run(x, opts, 0, 1);
       total += outcome.iterations;
       if (outcome.converged) return { strategy: 'newton', iterations: total };
-      last = outcome;
+      last = failed(outcome);
       lastStrategy = 'Newton';
     }
     if (!opts.skip.has('gmin')) {
       const { outcome, iterations } = gminStepping(opts, warm);
       total += iterations;
       if (outcome.converged) return { strategy: 'gmin', iterations: total };
-      last = outcome;
+      last = failed(outcome);
       lastStrategy = 'gmin stepping';
     }
     if (!opts.skip.has('source')) {
       const { outcome, iterations } = sourceStepping(opts);
       total += iterations;
       if (outcome.converged) return { strategy: 'source', iterations: total };
-      last = outcome;
+      last = failed(outcome);
       lastStrategy = 'source stepping';
     }
     // Leave a finite vector behind rather than a half-diverged one.
     x.set(start);
-    const names = (last?.unsettled ?? []).map((i) => cc.unknownNames[i]);
+    const names = [...unsettled].sort((a, b) => a - b).map((i) => cc.unknownNames[i]);
     throw new ConvergenceError(names, lastStrategy, `${last?.detail ?? 'no strategy allowed'}; ${total} iterations`);
   }
 
