@@ -29,7 +29,7 @@ import { bundledBoardFiles, loadBoard } from '../src/board/index.js';
 import { boardEvaluator } from '../src/circuit/analysis/board-evaluator.js';
 import { createRng } from '../src/circuit/analysis/prng.js';
 import { drawDeviation } from '../src/circuit/analysis/deviation.js';
-import { ConvergenceError, SingularMatrixError, StampError } from '../src/circuit/index.js';
+import { isSolverFailure } from '../src/circuit/index.js';
 import {
   applyFault,
   buildDictionary,
@@ -137,7 +137,7 @@ function simulate(faulty: Board, dict: BuiltDictionary, rng: ReturnType<typeof c
     ev.deviations.forEach((d, i) => (u[i] = drawDeviation(d.distribution, rng)));
     y = ev.evaluate(u);
   } catch (error) {
-    if (error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError) return undefined;
+    if (isSolverFailure(error)) return undefined;
     throw error;
   }
   // A reading lost to an unsolved circuit cannot be taken; the trial is not run on a partial board.

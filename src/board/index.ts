@@ -3,7 +3,7 @@ export { DEMO_BOARD_FILE, bundledBoardFiles } from './bundled.js';
 export { partValue, partTolerance, preparedPart, preparedParts, modelNameFor, resolveModel, resolveOpAmp, type PreparedPart } from './values.js';
 export { withSubstitutions } from './substitutions.js';
 export { buildCircuit, railSourceName, SIGNAL_SOURCE, SIGNAL_RESISTOR, SIGNAL_NODE, type BuildOptions, type BuiltCircuit } from './build-circuit.js';
-export { measureAll, readVoltage, readResistance, solvePatiently, FALLBACK_DC_OPTIONS, type MeasureOptions } from './measure.js';
+export { measureAll, readVoltage, readResistance, voltageReading, resistanceReading, solvePatiently, solveFallbacks, FALLBACK_DC_OPTIONS, type MeasureOptions, type NodeVolts } from './measure.js';
 export { DEFAULT_OHMMETER, OPEN_CIRCUIT_OHMS, METER_NODE, METER_SOURCE, METER_RESISTOR, ohmmeterReading, type OhmmeterModel } from './ohmmeter.js';
 export { findCondition, findTestPoint, findPart, roleTestPoint, roleParts, roleCondition, roleStage, testPointsFor, stagesOf } from './lookup.js';
 export { neighbourPins } from './neighbours.js';

@@ -35,30 +35,48 @@ export function solvePatiently(circuit: Circuit, options: DcOptions = {}): DcSol
     return solveDC(circuit, options);
   } catch (error) {
     if (!(error instanceof ConvergenceError)) throw error;
-    let last: unknown = error;
-    for (const fallback of FALLBACK_DC_OPTIONS) {
-      try {
-        return solveDC(circuit, { ...options, ...fallback, initial: undefined });
-      } catch (again) {
-        if (!(again instanceof ConvergenceError)) throw again;
-        last = again;
-      }
-    }
-    throw last;
+    return solveFallbacks(circuit, options, error);
   }
 }
 
-const nodeVolts = (s: DcSolution, node: string) => (node === GROUND ? 0 : (s.nodes[node] ?? 0));
-
-/** Voltage test point: V(net) − V(refNet) from a solution of the built circuit. */
-export function readVoltage(board: Board, tp: TestPoint, netNode: (net: string) => string, s: DcSolution): number {
-  return nodeVolts(s, netNode(tp.net)) - nodeVolts(s, netNode(tp.refNet ?? board.ground));
+/** The fallbacks alone, each from zero, after `failed` (thrown again, or the last one's error, if none converges). */
+export function solveFallbacks(circuit: Circuit, options: DcOptions, failed: ConvergenceError): DcSolution {
+  let last: ConvergenceError = failed;
+  for (const fallback of FALLBACK_DC_OPTIONS) {
+    try {
+      return solveDC(circuit, { ...options, ...fallback, initial: undefined });
+    } catch (again) {
+      if (!(again instanceof ConvergenceError)) throw again;
+      last = again;
+    }
+  }
+  throw last;
 }
 
-/** Resistance test point: the ohmmeter's reading from a solution of a circuit built with that meter. */
-export function readResistance(board: Board, tp: TestPoint, netNode: (net: string) => string, s: DcSolution, meter: Partial<OhmmeterModel> = {}): number {
+/** A circuit's node voltages by netlist node name, ground (and any node it lacks) at 0 V. */
+export type NodeVolts = (node: string) => number;
+
+const solutionVolts = (s: DcSolution): NodeVolts => (node) => (node === GROUND ? 0 : (s.nodes[node] ?? 0));
+
+/** Voltage test point: V(net) − V(refNet). */
+export function voltageReading(board: Board, tp: TestPoint, netNode: (net: string) => string, volts: NodeVolts): number {
+  return volts(netNode(tp.net)) - volts(netNode(tp.refNet ?? board.ground));
+}
+
+/** Resistance test point: the ohmmeter's reading, in a circuit built with that meter. */
+export function resistanceReading(board: Board, tp: TestPoint, netNode: (net: string) => string, volts: NodeVolts, meter: Partial<OhmmeterModel> = {}): number {
   const model = { ...DEFAULT_OHMMETER, ...meter };
-  return ohmmeterReading(nodeVolts(s, METER_NODE), nodeVolts(s, netNode(tp.net)), nodeVolts(s, netNode(tp.refNet ?? board.ground)), model);
+  return ohmmeterReading(volts(METER_NODE), volts(netNode(tp.net)), volts(netNode(tp.refNet ?? board.ground)), model);
+}
+
+/** voltageReading from a solution of the built circuit. */
+export function readVoltage(board: Board, tp: TestPoint, netNode: (net: string) => string, s: DcSolution): number {
+  return voltageReading(board, tp, netNode, solutionVolts(s));
+}
+
+/** resistanceReading from a solution of a circuit built with that meter. */
+export function readResistance(board: Board, tp: TestPoint, netNode: (net: string) => string, s: DcSolution, meter: Partial<OhmmeterModel> = {}): number {
+  return resistanceReading(board, tp, netNode, solutionVolts(s), meter);
 }
 
 /**

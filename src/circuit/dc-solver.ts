@@ -79,14 +79,7 @@ export function createDcSolver(circuit: Circuit): DcSolver {
   function warmStart(initial: DcSolution | undefined): boolean {
     start.fill(0);
     if (!initial) return false;
-    const names = cc.unknownNames;
-    for (let i = 0; i < n; i++) {
-      const name = names[i];
-      let v = initial.unknowns?.[name];
-      if (v === undefined) v = initial.nodes[name];
-      if (v === undefined && name.startsWith('i(')) v = initial.sourceCurrents[name.slice(2, -1)];
-      start[i] = typeof v === 'number' && Number.isFinite(v) ? v : 0;
-    }
+    warmStartVector(cc.unknownNames, initial, start);
     return true;
   }
 
@@ -289,6 +282,26 @@ const OPTION_FIELD_SET = {
   reltol: true, vntol: true, abstol: true, gmin: true, gshunt: true, maxIterations: true, maxGminSteps: true, maxSourceSteps: true,
 } as const satisfies Record<Exclude<keyof ResolvedDcOptions, 'skip'>, true>;
 const OPTION_FIELDS = Object.keys(OPTION_FIELD_SET) as Array<keyof typeof OPTION_FIELD_SET>;
+
+/**
+ * The start a previous solution gives a circuit with these unknowns: each unknown's value by name
+ * (a node's voltage, a source's current), zero where the solution has none (a node a fault added)
+ * or where it is not finite.
+ */
+export function warmStartVector(
+  unknownNames: readonly string[],
+  initial: Pick<DcSolution, 'unknowns' | 'nodes' | 'sourceCurrents'>,
+  into: Float64Array = new Float64Array(unknownNames.length),
+): Float64Array {
+  for (let i = 0; i < unknownNames.length; i++) {
+    const name = unknownNames[i];
+    let v = initial.unknowns?.[name];
+    if (v === undefined) v = initial.nodes[name];
+    if (v === undefined && name.startsWith('i(')) v = initial.sourceCurrents[name.slice(2, -1)];
+    into[i] = typeof v === 'number' && Number.isFinite(v) ? v : 0;
+  }
+  return into;
+}
 
 /** One DC operating point. For many solves of one circuit, keep a createDcSolver instead. */
 export function solveDC(circuit: Circuit, options?: DcOptions): DcSolution {

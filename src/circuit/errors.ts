@@ -36,3 +36,7 @@ export class SingularMatrixError extends Error {
     this.row = row;
   }
 }
+
+/** Whether an error is the solver failing on a circuit (no operating point found), not a bug or bad input. */
+export const isSolverFailure = (error: unknown): boolean =>
+  error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError;

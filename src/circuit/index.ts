@@ -1,8 +1,8 @@
 export * from './netlist.js';
-export { solveDC, createDcSolver, type DcSolver, type LeanDcOptions, type LeanDcResult } from './dc-solver.js';
+export { solveDC, createDcSolver, warmStartVector, type DcSolver, type LeanDcOptions, type LeanDcResult } from './dc-solver.js';
 export type { DcSolution, ElementResult } from './dc-solution.js';
 export { type DcOptions, DEFAULT_DC_OPTIONS } from './options.js';
-export { ConvergenceError, StampError, SingularMatrixError } from './errors.js';
+export { ConvergenceError, StampError, SingularMatrixError, isSolverFailure } from './errors.js';
 export { potResistances, taperFraction } from './devices/potentiometer.js';
 export { opampSpiceLines } from './devices/opamp.js';
 export { DIODE_PARAMS } from './devices/diode.js';

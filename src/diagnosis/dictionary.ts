@@ -4,7 +4,7 @@ import type { Board } from '../schemas/board.js';
 import { buildCircuit, measureAll, modelNameFor, OPAMP_PACKAGES, resolveOpAmp, testPointsFor, withSubstitutions } from '../board/index.js';
 import { compileCircuit, solveDC, type DcSolution } from '../circuit/index.js';
 import { expectBands, type Band } from '../circuit/analysis/expect-bands.js';
-import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
+import { isSolverFailure } from '../circuit/errors.js';
 import { applyFault, faultLink, type FaultLink } from './apply-fault.js';
 import { faultyBoardReadings, type FaultyReadings, type SavedPlans } from './faulty-board-readings.js';
 import { faultyOhmmeterReadings, healthyOhmmeterPoints } from './ohmmeter-readings.js';
@@ -435,8 +435,6 @@ function circuitKey(board: Board, condition: string): string {
   const { circuit } = buildCircuit(board, condition);
   return JSON.stringify([circuit.elements, circuit.models]);
 }
-
-const isSolverFailure = (error: unknown) => error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError;
 
 /** The healthy operating point of a powered condition, to start each faulty solve from. */
 function healthySolution(board: Board, condition: string): DcSolution | undefined {

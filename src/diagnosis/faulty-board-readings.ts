@@ -1,7 +1,7 @@
 import type { Board } from '../schemas/board.js';
-import { buildCircuit, FALLBACK_DC_OPTIONS, findCondition, measureAll, readVoltage, testPointsFor, type BuiltCircuit } from '../board/index.js';
-import { ConvergenceError, createDcSolver, solveDC, type DcSolution, type DcSolver } from '../circuit/index.js';
-import { ELSEWHERE_ITERATIONS, plainNewton, startOver, unknownsByName } from './newton-attempt.js';
+import { buildCircuit, findCondition, measureAll, readVoltage, solveFallbacks, testPointsFor, voltageReading, type BuiltCircuit } from '../board/index.js';
+import { ConvergenceError, createDcSolver, warmStartVector, type DcSolution, type DcSolver } from '../circuit/index.js';
+import { ELSEWHERE_ITERATIONS, plainNewton, solverVolts, startOver, unknownsByName } from './newton-attempt.js';
 import type { FaultLink } from './apply-fault.js';
 import { walkValue } from './value-walk.js';
 import type { ConditionSolvers } from './condition-solvers.js';
@@ -63,12 +63,13 @@ export function faultyBoardReadings(
   const solver = solvers ? solvers.solverFor(condition.id, circuitBuilt) : createDcSolver(circuit);
   if (startPlans && samePattern(startPlans.pattern, solver.compiled.pattern)) solver.engine.lu.restorePlans(startPlans.list);
   const settledAt = (x: Float64Array, fromHealthy = false): FaultyReadings => ({
-    readings: readX(solver.compiled.nodeIndex, x, faulty, points, netNode),
+    readings: Object.fromEntries(points.map((tp) => [tp.id, voltageReading(faulty, tp, netNode, solverVolts(solver, x))])),
     unknowns: unknownsByName(solver, x),
     plans: { pattern: solver.compiled.pattern, list: solver.engine.lu.savePlans() },
     fromHealthy,
   });
-  const start = startFrom(solver.compiled.unknownNames, warm);
+  // The same start solve({ initial: warm }) takes, so plain Newton lands where measureAll's does.
+  const start = warmStartVector(solver.compiled.unknownNames, warm);
   const other = elsewhereFirst ? elsewhere?.() : undefined;
   if (other && plainNewton(solver, startOver(solver, start, other), ELSEWHERE_ITERATIONS)) return settledAt(solver.x);
   // solveLean is solve() without the DcSolution: the same start, strategy and convergence test.
@@ -90,19 +91,8 @@ export function faultyBoardReadings(
   } catch (error) {
     if (!(error instanceof ConvergenceError)) throw error;
     // measureAll's own fallbacks (solvePatiently), each from zero on a fresh solver.
-    let last: unknown = error;
-    for (const fallback of FALLBACK_DC_OPTIONS) {
-      try {
-        const s = solveDC(circuit, { ...fallback, initial: undefined });
-        const readings: Record<string, number> = {};
-        for (const tp of points) readings[tp.id] = readVoltage(faulty, tp, netNode, s);
-        return { readings };
-      } catch (again) {
-        if (!(again instanceof ConvergenceError)) throw again;
-        last = again;
-      }
-    }
-    throw last;
+    const s = solveFallbacks(circuit, {}, error);
+    return { readings: Object.fromEntries(points.map((tp) => [tp.id, readVoltage(faulty, tp, netNode, s)])) };
   }
 }
 
@@ -110,18 +100,6 @@ function samePattern(a: Uint8Array, b: Uint8Array): boolean {
   if (a.length !== b.length) return false;
   for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
   return true;
-}
-
-/** The healthy unknowns by name, zero where the faulty circuit has new ones (as solve() warm-starts). */
-function startFrom(unknownNames: string[], warm: DcSolution): Float64Array {
-  const start = new Float64Array(unknownNames.length);
-  unknownNames.forEach((name, i) => {
-    let v = warm.unknowns?.[name];
-    if (v === undefined) v = warm.nodes[name];
-    if (v === undefined && name.startsWith('i(')) v = warm.sourceCurrents[name.slice(2, -1)];
-    start[i] = typeof v === 'number' && Number.isFinite(v) ? v : 0;
-  });
-  return start;
 }
 
 /** The walk's start: an opened pin's own node at the voltage of the net it left, as when it was joined. */
@@ -133,14 +111,4 @@ function openedAtItsNet(solver: DcSolver, start: Float64Array, link: FaultLink, 
   const out = start.slice();
   if (lone !== undefined) out[lone] = from === undefined ? 0 : start[from];
   return out;
-}
-
-function readX(nodeIndex: Map<string, number>, x: Float64Array, board: Board, points: ReturnType<typeof testPointsFor>, netNode: (net: string) => string): Record<string, number> {
-  const v = (net: string) => {
-    const i = nodeIndex.get(netNode(net));
-    return i === undefined ? 0 : x[i];
-  };
-  const readings: Record<string, number> = {};
-  for (const tp of points) readings[tp.id] = v(tp.net) - v(tp.refNet ?? board.ground);
-  return readings;
 }

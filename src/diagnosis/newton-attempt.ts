@@ -1,7 +1,7 @@
 import type { DcSolver } from '../circuit/index.js';
-import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
+import type { NodeVolts } from '../board/index.js';
+import { isSolverFailure } from '../circuit/errors.js';
 
-export const isSolverFailure = (error: unknown) => error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError;
 
 /**
  * Newton iterations allowed from a fault's operating point in another condition of the same board.
@@ -20,6 +20,15 @@ export function plainNewton(solver: DcSolver, start: Float64Array | undefined, m
     if (!isSolverFailure(error)) throw error;
     return false;
   }
+}
+
+/** The node voltages of a solver's unknown vector (the last answer by default), for the meter readings. */
+export function solverVolts(solver: DcSolver, x: Float64Array = solver.x): NodeVolts {
+  const { nodeIndex } = solver.compiled;
+  return (node) => {
+    const i = nodeIndex.get(node);
+    return i === undefined ? 0 : x[i];
+  };
 }
 
 /** The solver's unknowns by name. */

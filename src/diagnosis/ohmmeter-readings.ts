@@ -1,7 +1,8 @@
 import type { Board } from '../schemas/board.js';
-import { buildCircuit, DEFAULT_OHMMETER, findCondition, METER_NODE, ohmmeterReading, readResistance, solvePatiently, testPointsFor } from '../board/index.js';
-import { createDcSolver, GROUND, type DcSolution } from '../circuit/index.js';
-import { isSolverFailure, plainNewton } from './newton-attempt.js';
+import { buildCircuit, findCondition, readResistance, resistanceReading, solvePatiently, testPointsFor } from '../board/index.js';
+import { createDcSolver, warmStartVector, type DcSolution } from '../circuit/index.js';
+import { isSolverFailure } from '../circuit/errors.js';
+import { plainNewton, solverVolts } from './newton-attempt.js';
 
 /**
  * The healthy board's ohmmeter circuits of an unpowered condition, solved: per resistance test
@@ -37,17 +38,9 @@ export function faultyOhmmeterReadings(faulty: Board, conditionId: string, healt
     const from = healthy.get(tp.id);
     if (from) {
       const solver = createDcSolver(circuit);
-      const start = Float64Array.from(solver.compiled.unknownNames, (name) => {
-        const v = from.unknowns?.[name] ?? from.nodes[name];
-        return typeof v === 'number' && Number.isFinite(v) ? v : 0;
-      });
+      const start = warmStartVector(solver.compiled.unknownNames, from);
       if (plainNewton(solver, start)) {
-        const { nodeIndex } = solver.compiled;
-        const v = (node: string) => {
-          const i = node === GROUND ? undefined : nodeIndex.get(node);
-          return i === undefined ? 0 : solver.x[i];
-        };
-        readings[tp.id] = ohmmeterReading(v(METER_NODE), v(netNode(tp.net)), v(netNode(tp.refNet ?? faulty.ground)), DEFAULT_OHMMETER);
+        readings[tp.id] = resistanceReading(faulty, tp, netNode, solverVolts(solver));
         continue;
       }
     }

@@ -1,7 +1,7 @@
 import type { Board, TestPoint } from '../schemas/board.js';
 import { buildCircuit, type BuiltCircuit, DEFAULT_OHMMETER, METER_NODE, ohmmeterReading, testPointsFor, findCondition } from '../board/index.js';
 import { createDcSolver, GROUND, type DcSolver } from '../circuit/index.js';
-import { ConvergenceError, SingularMatrixError, StampError } from '../circuit/errors.js';
+import { isSolverFailure } from '../circuit/errors.js';
 import { SHORT_OHMS } from './board-edits.js';
 import type { Fault } from './fault.js';
 import { walkValue } from './value-walk.js';
@@ -78,7 +78,6 @@ interface Setup {
   read: (x: Float64Array, into: number[]) => void;
 }
 
-const isSolverFailure = (error: unknown) => error instanceof ConvergenceError || error instanceof SingularMatrixError || error instanceof StampError;
 
 /**
  * The value-fault solver of one condition, or undefined when a healthy circuit of it does not settle

@@ -1,5 +1,5 @@
 import type { DcSolver } from '../circuit/index.js';
-import { isSolverFailure } from './newton-attempt.js';
+import { isSolverFailure } from '../circuit/errors.js';
 
 /**
  * Continuation in the fault itself. A faulty board is one change away from a healthy board whose
