@@ -137,5 +137,9 @@ const MERGE = 0.25;
 const OUTLIER_SQUARED = OUTLIER_SCALE * OUTLIER_SCALE;
 const SQRT_2PI = Math.sqrt(2 * Math.PI);
 /** Gauss–Hermite nodes and weights for 5 points (Abramowitz & Stegun, table 25.10), weights divided by √π. */
-const NODES = [-2.020182870456086, -0.958572464613819, 0, 0.958572464613819, 2.020182870456086];
-const WEIGHTS = [0.019953242059046, 0.393619323152241, 0.945308720482942, 0.393619323152241, 0.019953242059046].map((w) => w / Math.sqrt(Math.PI));
+export const GAUSS_HERMITE_5: { nodes: readonly number[]; weights: readonly number[] } = {
+  nodes: [-2.020182870456086, -0.958572464613819, 0, 0.958572464613819, 2.020182870456086],
+  weights: [0.019953242059046, 0.393619323152241, 0.945308720482942, 0.393619323152241, 0.019953242059046].map((w) => w / Math.sqrt(Math.PI)),
+};
+const NODES = GAUSS_HERMITE_5.nodes;
+const WEIGHTS = GAUSS_HERMITE_5.weights;

@@ -176,6 +176,16 @@ describe('properties of nonlinear networks', () => {
       { numRuns: 60, examples: LATCHES.map((l) => [l]) },
     );
   });
+
+  it('those latches, with next to no source, settle at zero volts', () => {
+    // A network of resistors, diodes and transistors holds no energy of its own: with no source
+    // its only operating point is every node at 0 V (common practice; the sources here are
+    // below 1e-80 A and V).
+    for (const { net, parts } of LATCHES) {
+      const s = solveDC(build(net, parts));
+      for (const [name, v] of Object.entries(s.nodes)) expect(Math.abs(v), name).toBeLessThan(1e-9);
+    }
+  });
 });
 
 const LATCHES: Array<{ net: Net; parts: Array<readonly unknown[]> }> = [

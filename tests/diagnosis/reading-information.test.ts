@@ -3,7 +3,7 @@ import { spreadTable } from '../../src/diagnosis/dictionary-model.js';
 import { DEFAULT_METER } from '../../src/diagnosis/meter.js';
 import { binsAt, expectedEntropyAfter, nextProbe } from '../../src/diagnosis/next-probe.js';
 import { entropyBits, posterior } from '../../src/diagnosis/posterior.js';
-import { readingInformation } from '../../src/diagnosis/reading-information.js';
+import { GAUSS_HERMITE_5, readingInformation } from '../../src/diagnosis/reading-information.js';
 import { hyp, obs } from './fixtures.js';
 
 const even = (n: number) => new Array<number>(n).fill(1 / n);
@@ -24,6 +24,19 @@ function binEdge(): number {
   }
   return hi;
 }
+
+describe('the five-point Gauss–Hermite rule', () => {
+  it('gives the standard normal moments exactly up to the ninth power', () => {
+    // An n-point Gauss–Hermite rule is exact for polynomials of degree ≤ 2n − 1 (Abramowitz &
+    // Stegun 25.4.46); with x = √2·node it gives E[zᵏ] of a standard normal: 1, 0, 1, 0, 3, 0, 15, 0, 105
+    // ((k − 1)!! for even k, textbook).
+    const moments = [1, 0, 1, 0, 3, 0, 15, 0, 105];
+    moments.forEach((m, k) => {
+      const sum = GAUSS_HERMITE_5.nodes.reduce((a, x, i) => a + GAUSS_HERMITE_5.weights[i] * (Math.SQRT2 * x) ** k, 0);
+      expect(sum, `E[z^${k}]`).toBeCloseTo(m, 9);
+    });
+  });
+});
 
 describe('expected information from one reading', () => {
   it('is nothing where every hypothesis predicts the same', () => {
