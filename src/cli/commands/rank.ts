@@ -62,7 +62,7 @@ export const command: Command = {
     // Building the dictionary takes the solver a while on a full board: keep it for the next run.
     const diskCache = values['no-cache'] ? undefined : { dir: defaultCacheDir(io.env), version: version() };
     if (!dictionaryReady(subject, { diskCache })) {
-      io.stderr(`voltwalk: simulating every modelled fault of ${subject.name} under each condition; this takes minutes the first time${diskCache ? ' and is kept for later runs' : ''}\n`);
+      io.stderr(`voltwalk: simulating every modelled fault of ${subject.name} under each condition; this takes ten seconds or more the first time${diskCache ? ' and is kept for later runs' : ''}\n`);
     }
     const result = rankSuspects(subject, readings, { limit, diskCache });
     if (values.json) io.stdout(`${JSON.stringify(result, null, 2)}\n`);
