@@ -1,4 +1,4 @@
-import { formatValue } from '../units/index.js';
+import { bandFigures, formatValue } from '../units/index.js';
 import { NO_FAULT, spreadOf, toDomain, type FaultDictionary, type Hypothesis, type Reading } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
@@ -35,7 +35,10 @@ export function explain(dict: FaultDictionary, h: number, readings: Reading[], w
     const miss = mine ? Math.abs(read - mine.centre) / mine.reach : 0;
     return { k, i, obs, mine, telling, miss };
   });
-  const you = (k: number) => `you read ${showReading(readings[k].value, dict.observables[where[k]].unit, meter)}`;
+  const you = (k: number) => {
+    const obs = dict.observables[where[k]];
+    return `you read ${showReading(readings[k].value, obs.unit, meter, figuresOf(obs))}`;
+  };
 
   let text: string;
   if (hyp.id === NO_FAULT) {
@@ -47,8 +50,9 @@ export function explain(dict: FaultDictionary, h: number, readings: Reading[], w
     const unsure = scored.filter((s) => !s.mine);
     const known = scored.filter((s) => s.mine).sort((a, b) => b.telling + b.miss - (a.telling + a.miss));
     const clauses = known.slice(0, 2).map((s) => {
-      const predicted = showReading(hyp.predictions[s.i], s.obs.unit, meter);
-      const healthyText = s.telling > 1 ? `healthy ${showReading(s.obs.nominal, s.obs.unit, meter)}` : 'as on a healthy board';
+      const figures = figuresOf(s.obs);
+      const predicted = showReading(hyp.predictions[s.i], s.obs.unit, meter, figures);
+      const healthyText = s.telling > 1 ? `healthy ${showReading(s.obs.nominal, s.obs.unit, meter, figures)}` : 'as on a healthy board';
       return `${label(s.i)} would read ${predicted} with ${hyp.part} ${hyp.fault} (${healthyText}); ${you(s.k)}`;
     });
     if (unsure.length > 0) {
@@ -82,8 +86,21 @@ function closestVariant(dict: FaultDictionary, hyp: Hypothesis, readings: Readin
   return best;
 }
 
-function band(obs: FaultDictionary['observables'][number], meter: MeterSpec): string {
+type Observable = FaultDictionary['observables'][number];
+
+/**
+ * Every number quoted for a test point (band, predictions, the reading) carries the figures that keep
+ * its healthy band's edges apart, as the step screen does: against a rail band of 11.74 V to 11.80 V,
+ * "would read 11.7 V" or "you read 11.8 V" could not be placed inside or outside it.
+ */
+function figuresOf(obs: Observable): number {
+  return obs.halfWidth > 0 ? bandFigures(obs.nominal - obs.halfWidth, obs.nominal + obs.halfWidth) : 3;
+}
+
+function band(obs: Observable, meter: MeterSpec): string {
   if (obs.unit === 'Ω' && !(obs.nominal < meter.maxOhms)) return 'OL (open)';
-  if (obs.halfWidth <= 0) return showReading(obs.nominal, obs.unit, meter);
-  return `${showReading(obs.nominal, obs.unit, meter)} (${showReading(obs.nominal - obs.halfWidth, obs.unit, meter)} to ${showReading(obs.nominal + obs.halfWidth, obs.unit, meter)})`;
+  const figures = figuresOf(obs);
+  const show = (v: number) => showReading(v, obs.unit, meter, figures);
+  if (obs.halfWidth <= 0) return show(obs.nominal);
+  return `${show(obs.nominal)} (${show(obs.nominal - obs.halfWidth)} to ${show(obs.nominal + obs.halfWidth)})`;
 }

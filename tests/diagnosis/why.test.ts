@@ -19,4 +19,19 @@ describe('why a suspect is ranked where it is', () => {
     const text = explain(dict, 1, [{ testPoint: 'TP1', condition: 'quiescent', value: 5.45 }], [0]);
     expect(text).toContain('would read 5.5 V');
   });
+
+  it('quotes a narrow band, the predictions and the reading with the figures that keep the band edges apart', () => {
+    // A rail band 11.74 V … 11.80 V (halfWidth 0.03 about 11.77 V): to three figures its edges would read
+    // 11.7 V and 11.8 V, and a prediction of 11.70 V would look like an edge. Four figures, by hand:
+    // a step of 0.01 V, and 0.06 V spans 6 steps (≥ 4).
+    const rail = {
+      observables: [obs('TP1', 11.77, 0.03)],
+      hypotheses: [hyp('none', [11.77]), hyp('D1/open', [11.7])],
+    };
+    const read = [{ testPoint: 'TP1', condition: 'quiescent', value: 11.75 }];
+    expect(explain(rail, 0, [{ ...read[0], value: 11.2 }], [0])).toContain('TP1 should read 11.77 V (11.74 V to 11.8 V) on a healthy board; you read 11.2 V');
+    const text = explain(rail, 1, read, [0]);
+    expect(text).toContain('would read 11.7 V');
+    expect(text).toContain('you read 11.75 V');
+  });
 });
