@@ -4,6 +4,7 @@ import { Frame } from '../components/frame/Frame.js';
 import { TextField } from '../components/text-field/TextField.js';
 import type { Check } from '../components/text-field/use-text-field.js';
 import { Tinted } from '../theme/Tinted.js';
+import { Prose } from '../components/prose/Prose.js';
 
 interface Props {
   width: number;
@@ -33,9 +34,9 @@ export function CautionScreen({ width, title, stageMap, text, hazards, isActive 
         <Tinted tone="caution" bold>
           !! CAUTION
         </Tinted>
-        <Text>{text}</Text>
+        <Prose>{text}</Prose>
         {hazards.map((h) => (
-          <Text key={h}>- {h}</Text>
+          <Prose key={h}>{`- ${h}`}</Prose>
         ))}
       </Box>
       <Box marginTop={1}>

@@ -4,6 +4,8 @@ import { Frame } from '../components/frame/Frame.js';
 import { TextField } from '../components/text-field/TextField.js';
 import type { Check } from '../components/text-field/use-text-field.js';
 import { Tinted } from '../theme/Tinted.js';
+import { Prose } from '../components/prose/Prose.js';
+import { keepUnitsTogether } from '../components/prose/keep-units.js';
 import type { WalkStep } from '../../engine/step-view.js';
 
 interface Props {
@@ -43,18 +45,18 @@ export function MeasureScreen({ width, title, stageMap, text, testPoint, conditi
         <Text bold>
           MEASURE {testPoint ? `${testPoint.id} · ${testPoint.label}` : ''}
         </Text>
-        <Text>{text}</Text>
+        <Prose>{text}</Prose>
         {condition ? (
           <Text>
             <Tinted tone="quiet">Set-up: </Tinted>
-            {condition.label}
+            {keepUnitsTogether(condition.label)}
             {condition.powered ? ' (powered)' : ' (power off)'}
           </Text>
         ) : null}
         {testPoint ? (
           <Text>
             <Tinted tone="quiet">Probes: </Tinted>
-            {testPoint.probe}
+            {keepUnitsTogether(testPoint.probe)}
           </Text>
         ) : null}
         <Text>

@@ -2,6 +2,8 @@ import React from 'react';
 import { Box, Text, useInput } from 'ink';
 import { Frame } from '../components/frame/Frame.js';
 import { Tinted } from '../theme/Tinted.js';
+import { Prose } from '../components/prose/Prose.js';
+import { keepUnitsTogether } from '../components/prose/keep-units.js';
 import type { WalkStep } from '../../engine/step-view.js';
 
 interface Props {
@@ -30,11 +32,11 @@ export function SetupScreen({ width, title, stageMap, text, condition, powered, 
       {stageMap}
       <Box marginTop={stageMap ? 1 : 0} flexDirection="column">
         <Text bold>SET UP{powered ? ' (power on)' : ' (power off)'}</Text>
-        <Text>{text}</Text>
+        <Prose>{text}</Prose>
         {condition ? (
           <Text>
             <Tinted tone="quiet">{condition.label}: </Tinted>
-            {condition.instructions}
+            {keepUnitsTogether(condition.instructions)}
           </Text>
         ) : null}
       </Box>

@@ -29,13 +29,23 @@ describe('caution screen', () => {
         '',
         '!! CAUTION',
         'The next steps need the module switched on.',
-        '- the ±12 V rails are live: one slipped probe can short a rail',
+        '- the ±12\u00a0V rails are live: one slipped probe can short a rail',
         '',
         'Read it? Type y and Enter: _',
         '',
         'y Enter I have read this  ·  Esc back  ·  Ctrl-C quit, saved',
       ].join('\n'),
     );
+  });
+
+  it('wraps without splitting a value from its unit', () => {
+    // At 10 columns a plain space would leave "- the ±12" on one line and "V rails" on the next.
+    const { lastFrame } = render(
+      <CautionScreen width={10} title="t" text="Power next." hazards={['the ±12 V rails']} onAcknowledge={() => {}} onBack={() => {}} />,
+    );
+    const lines = lastFrame()!.split('\n');
+    expect(lines).toContain('±12\u00a0V');
+    expect(lines.some((l) => l.trimEnd().endsWith('±12'))).toBe(false);
   });
 
   it('is not dismissed by Enter alone or by another key', async () => {
