@@ -37,11 +37,26 @@ export const NextProbeSchema = z
   })
   .strict();
 
+/** A reading no candidate's prediction comes near (see unexplained.ts). */
+export const UnexplainedSchema = z
+  .object({
+    testPoint: z.string(),
+    condition: z.string(),
+    value: z.number(),
+    /** The hypothesis whose prediction came nearest, and that prediction. */
+    nearest: z.object({ id: z.string(), predicted: z.number() }).strict(),
+    text: z.string(),
+  })
+  .strict();
+export type Unexplained = z.infer<typeof UnexplainedSchema>;
+
 export const RankResultSchema = z
   .object({
     suspects: z.array(SuspectSchema),
     groups: z.array(SuspectGroupSchema),
     next: NextProbeSchema.optional(),
+    /** Readings that fit no single modelled fault; absent when every reading fits some candidate. */
+    unexplained: z.array(UnexplainedSchema).optional(),
     /** Entropy of the suspects now, in bits. */
     entropyBits: z.number(),
   })

@@ -7,6 +7,7 @@ import { nextProbe } from './next-probe.js';
 import { entropyBits, locateReadings, rowPosterior } from './posterior.js';
 import type { RankResult, Suspect, SuspectGroup } from './rank-result.js';
 import { explain } from './why.js';
+import { unexplainedReadings } from './unexplained.js';
 
 export interface RankOptions {
   /** Parts replaced on the board as the person has it (designator → value). */
@@ -84,7 +85,8 @@ export function rankSuspects(board: Board, readings: Reading[], options: RankOpt
 
   // The look-ahead works on rows: where a probe's reading would land depends on which variant holds.
   const next = nextProbe(rowView(dict).rows, both.rows, { meter, measured: new Set(where), currentCondition: readings.at(-1)?.condition });
-  return { suspects, groups: groupList, ...(next ? { next } : {}), entropyBits: round(entropyBits(p)) };
+  const unexplained = unexplainedReadings(dict, readings, where, meter);
+  return { suspects, groups: groupList, ...(next ? { next } : {}), ...(unexplained.length ? { unexplained } : {}), entropyBits: round(entropyBits(p)) };
 }
 
 const mass = (members: number[], p: number[]) => members.reduce((a, h) => a + p[h], 0);

@@ -44,8 +44,8 @@ export function explain(dict: FaultDictionary, h: number, readings: Reading[], w
   if (hyp.id === NO_FAULT) {
     const worst = [...scored].sort((a, b) => b.miss - a.miss)[0];
     if (!worst) text = 'no readings yet';
-    else if (worst.miss <= 1) text = `every reading is within its healthy band (e.g. ${label(worst.i)} should read ${band(worst.obs, meter)}; ${you(worst.k)})`;
-    else text = `${label(worst.i)} should read ${band(worst.obs, meter)} on a healthy board; ${you(worst.k)}`;
+    else if (worst.miss <= 1) text = `every reading is within its healthy band (e.g. ${label(worst.i)} should read ${healthyBand(worst.obs, meter)}; ${you(worst.k)})`;
+    else text = `${label(worst.i)} should read ${healthyBand(worst.obs, meter)} on a healthy board; ${you(worst.k)}`;
   } else {
     const unsure = scored.filter((s) => !s.mine);
     const known = scored.filter((s) => s.mine).sort((a, b) => b.telling + b.miss - (a.telling + a.miss));
@@ -93,11 +93,11 @@ type Observable = FaultDictionary['observables'][number];
  * its healthy band's edges apart, as the step screen does: against a rail band of 11.74 V to 11.80 V,
  * "would read 11.7 V" or "you read 11.8 V" could not be placed inside or outside it.
  */
-function figuresOf(obs: Observable): number {
+export function figuresOf(obs: Observable): number {
   return obs.halfWidth > 0 ? bandFigures(obs.nominal - obs.halfWidth, obs.nominal + obs.halfWidth) : 3;
 }
 
-function band(obs: Observable, meter: MeterSpec): string {
+export function healthyBand(obs: Observable, meter: MeterSpec): string {
   if (obs.unit === 'Ω' && !(obs.nominal < meter.maxOhms)) return 'OL (open)';
   const figures = figuresOf(obs);
   const show = (v: number) => showReading(v, obs.unit, meter, figures);

@@ -32,6 +32,7 @@ function currentLines(step: WalkStep, wording: Wording): string[] {
     const c = step.conclusion;
     const lines = [`Conclusion: ${c.title}`, `  ${step.say[wording]}`];
     if (c.parts.length) lines.push('  Likely parts:', ...c.parts.map((p) => `    ${partLine(p)}`));
+    for (const u of c.unexplained ?? []) lines.push(`  ! ${u}`);
     if (c.suspects?.length) {
       lines.push('  Ranked suspects (from the readings):');
       c.suspects.slice(0, 5).forEach((s, i) => lines.push(`    ${i + 1}. ${s.part} ${s.fault} — ${(s.probability * 100).toFixed(0)} % — ${s.why}`));

@@ -37,12 +37,25 @@ describe('voltwalk rank', () => {
     const result = RankResultSchema.parse(JSON.parse(out));
     expect(result.suspects[0]).toMatchObject({ part: 'R2', fault: 'open', group: 1 });
     expect(result.suspects[0].why).toMatch(/^TP1 would read [\d.]+ V with R2 open \(healthy [\d.]+ V\); you read [\d.]+ V/);
+    // The fault's own reading: some candidate foresees it.
+    expect(result.unexplained).toBeUndefined();
     const total = result.suspects.reduce((a, s) => a + s.probability, 0);
     expect(total).toBeLessThanOrEqual(1.0001);
     if (result.next) {
       expect(result.next.testPoint).toMatch(/^TP\d+$/);
       expect(result.next.expectedInformationBits).toBeGreaterThan(0);
     }
+  });
+
+  it('says first when a reading fits no modelled fault: 20 V on a ±12 V board', async () => {
+    const { code, out } = await rank('--reading', 'TP1=20', '--json');
+    expect(code).toBe(0);
+    const result = RankResultSchema.parse(JSON.parse(out));
+    expect(result.unexplained).toHaveLength(1);
+    expect(result.unexplained![0]).toMatchObject({ testPoint: 'TP1', condition: 'quiescent', value: 20 });
+    const text = await rank('--reading', 'TP1=20');
+    expect(text.out.indexOf('! TP1 = 20 V fits no single modelled fault')).toBeGreaterThan(0);
+    expect(text.out.indexOf('! TP1 = 20 V')).toBeLessThan(text.out.indexOf('Suspects, most likely first'));
   });
 
   it('accepts values with units and readings from another condition', async () => {

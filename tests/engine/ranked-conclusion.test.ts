@@ -22,6 +22,20 @@ describe('conclusion with ranked suspects', () => {
     expect(c.suspects?.length).toBeGreaterThan(0);
     expect(c.suspects!.map((s) => s.part)).toContain('D1');
     expect(formatTranscriptText(t)).toContain('Ranked suspects (from the readings):');
+    // Every reading is the injected fault's own: some candidate foresees each one.
+    expect(c.unexplained).toBeUndefined();
+
+    // One reading no candidate foresees (30 V on a ±12 V board) is named before the suspects.
+    const answers = answersReadOn(faulty, tree, board);
+    const first = Object.entries(tree.nodes).find(
+      ([, n]) => n.kind === 'measure' && board.testPoints.find((p) => p.id === board.roles.testPoints[n.testPoint])?.quantity === 'voltage',
+    )![0];
+    const odd = walkFromAnswers(tree, board, { ...answers, [first]: '30' }, { samples: 0 });
+    const note = odd.current.conclusion?.unexplained ?? [];
+    expect(note).toHaveLength(1);
+    expect(note[0]).toMatch(/^TP\d+ = 30 V fits no single modelled fault/);
+    const text = formatTranscriptText(odd);
+    expect(text.indexOf(`! ${note[0]}`)).toBeLessThan(text.indexOf('Ranked suspects (from the readings):'));
   }, 300_000);
 
   it("takes the walk's conditions out of the whole board's dictionary when that is built, instead of building another", () => {

@@ -112,6 +112,7 @@ function toText(board: Board, readings: Reading[], result: RankResult): string {
   });
   lines.push(`${board.name}: ${shown.length ? `readings ${shown.join(', ')}` : 'no readings yet — suspects by prior likelihood only'}`);
   lines.push('');
+  for (const u of result.unexplained ?? []) lines.push(`! ${u.text}`, '');
   lines.push('Suspects, most likely first:');
   const width = Math.max(...result.suspects.map((s) => label(s).length), 10);
   result.suspects.forEach((s, i) => {

@@ -34,6 +34,8 @@ export interface CaseSummary {
   skipped: Array<{ step: string; reason: string }>;
   conclusion?: { title: string; advice: string; parts: string[] };
   suspects: Array<{ rank: number; parts: string[]; faults: string[]; probability: number; why: string; where: string[] }>;
+  /** Readings no single modelled fault explains, as sentences (the suspects are then only the nearest fits). */
+  unexplained: string[];
   next?: { testPoint: string; label: string; condition: string; conditionLabel: string; probe: string; question: string };
   /** Where the walk stands when it is not finished: the step waiting for an answer. */
   waitingAt?: { step: string; kind: string; prompt: string };
@@ -70,10 +72,12 @@ export function buildCaseSummary(walk: WalkSetup, snapshot: { value: unknown; co
     answers: t.entries.flatMap((e) => (e.answer && (e.kind === 'observe' || e.kind === 'inspect') ? [{ step: e.node, question: firstSentence(e.say[wording]), answer: e.answer.label }] : [])),
     skipped: t.entries.flatMap((e) => (e.skipped ? [{ step: e.node, reason: e.skipped }] : [])),
     suspects: [],
+    unexplained: [],
   };
   if (current.conclusion) {
     summary.conclusion = { title: current.conclusion.title, advice: current.say[wording], parts: current.conclusion.parts.map((p) => p.ref) };
     summary.suspects = groupSuspects(board, current.conclusion.suspects ?? []);
+    summary.unexplained = current.conclusion.unexplained ?? [];
   } else {
     summary.waitingAt = { step: current.node, kind: current.kind, prompt: current.say[wording] };
   }

@@ -35,6 +35,7 @@ export function formatCaseSummary(c: CaseSummary, style: SummaryStyle = 'md'): s
   for (const a of c.answers.slice(-MAX_ANSWERS)) lines.push(`- ${a.question} -> ${a.answer}`);
   if (c.skipped.length > 0) lines.push(`Skipped: ${c.skipped.length} step(s) (${c.skipped[0].reason}${c.skipped.length > 1 ? ', …' : ''})`);
   if (c.conclusion) lines.push(`${b('Found')}: ${c.conclusion.title}`);
+  for (const u of c.unexplained) lines.push(`Note: ${clip(u, 240)}`);
   if (c.suspects.length > 0) {
     lines.push('Suspects (most likely first):');
     for (const s of c.suspects.slice(0, MAX_SUSPECTS)) {

@@ -2,6 +2,7 @@ import React from 'react';
 import { Box, Text, useInput } from 'ink';
 import { Frame } from '../components/frame/Frame.js';
 import { Tinted } from '../theme/Tinted.js';
+import { keepUnitsTogether } from '../components/prose/keep-units.js';
 import type { CaseSummary } from '../case/case-summary.js';
 import { partLine, type PartLineInfo } from '../parts/part-info.js';
 import { listFaults } from '../case/format-case-summary.js';
@@ -48,6 +49,11 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
         </Box>
       ) : null}
       <Box marginTop={1} flexDirection="column">
+        {summary.unexplained.map((u) => (
+          <Tinted key={u} tone="caution">
+            {keepUnitsTogether(`! ${u}`)}
+          </Tinted>
+        ))}
         {summary.suspects.length > 0 ? (
           <>
             <Text>Suspects, most likely first (from your readings):</Text>

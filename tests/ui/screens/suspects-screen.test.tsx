@@ -21,6 +21,7 @@ const summary: CaseSummary = {
     { rank: 1, parts: ['R20'], faults: ['R20 open'], probability: 0.62, why: 'TP5 reads 0 V where 1.1 V is expected', where: ['below the threshold knob'] },
     { rank: 2, parts: ['C7', 'R21'], faults: ['C7 short', 'R21 open'], probability: 0.3, why: 'both pull TP5 to ground', where: ['by U3'] },
   ],
+  unexplained: [],
   next: { testPoint: 'TP6', label: 'detector', condition: 'hot', conditionLabel: 'DC above threshold', probe: 'red on TP6', question: 'Measure TP6' },
 };
 
@@ -52,6 +53,17 @@ describe('suspects screen', () => {
         's case summary for chat  ·  Esc back  ·  n new walk  ·  q quit',
       ].join('\n'),
     );
+  });
+
+  it('says first, and in words, when a reading fits no modelled fault', () => {
+    const odd = { ...summary, unexplained: ['TP1 = 11.2 V fits no single modelled fault.'] };
+    const { lastFrame } = render(
+      <SuspectsScreen width={80} title="t" summary={odd} part={part} onSummary={() => {}} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />,
+    );
+    const lines = lastFrame()!.split('\n');
+    const note = lines.indexOf('! TP1 = 11.2\u00a0V fits no single modelled fault.');
+    expect(note).toBeGreaterThan(0);
+    expect(note).toBeLessThan(lines.indexOf('Suspects, most likely first (from your readings):'));
   });
 
   it('writes the case summary on s', async () => {
