@@ -6,9 +6,10 @@ import type { Board } from '../schemas/board.js';
 import type { BuiltDictionary } from './dictionary.js';
 
 /**
- * A built dictionary kept on disk between runs, since building one for a full board takes the
- * solver minutes. Keyed by a hash of everything the predictions depend on that lives in data (the
- * board with substitutions, the conditions, the prior share) and by DICTIONARY_FORMAT, which is
+ * A built dictionary kept on disk between runs, since building one for a full board keeps the
+ * solver busy for seconds (tens of seconds on a slow machine). Keyed by a hash of everything the
+ * predictions depend on that lives in data (the board with substitutions, the conditions, the
+ * prior share) and by DICTIONARY_FORMAT, which is
  * raised whenever fault models or the file layout change. A file that cannot be read or parsed is
  * ignored and rebuilt: a cache is never a reason to fail.
  */
