@@ -13,7 +13,7 @@ import type { BuiltDictionary } from './dictionary.js';
  * raised whenever fault models or the file layout change. A file that cannot be read or parsed is
  * ignored and rebuilt: a cache is never a reason to fail.
  */
-export const DICTIONARY_FORMAT = 'voltwalk-dictionary/5';
+export const DICTIONARY_FORMAT = 'voltwalk-dictionary/6';
 
 export function defaultCacheDir(env: Record<string, string | undefined> = process.env): string {
   return env.VOLTWALK_CACHE_DIR ?? join(env.XDG_CACHE_HOME ?? join(homedir(), '.cache'), 'voltwalk');

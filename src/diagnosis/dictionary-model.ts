@@ -20,6 +20,13 @@ export interface Observable {
   nominal: number;
   /** Half-width of the healthy tolerance band, in the reading's unit. */
   halfWidth: number;
+  /**
+   * The healthy band's edges as computed, which need not sit evenly about the nominal: shown to the
+   * person (as the walk and `voltwalk expect` show them). The ranking's arithmetic takes nominal ±
+   * halfWidth.
+   */
+  min?: number;
+  max?: number;
   /** Largest magnitude a reading here can plausibly take (the rails, or the meter's top range). */
   span: number;
 }

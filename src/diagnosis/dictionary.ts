@@ -136,7 +136,8 @@ function build(board: Board, options: DictionaryOptions): BuiltDictionary {
       const value = readings[tp.id];
       const unit = tp.quantity === 'voltage' ? 'V' : 'Ω';
       const halfWidth = band && Number.isFinite(band.max - band.min) ? (band.max - band.min) / 2 : 0;
-      observables.push({ testPoint: tp.id, condition, unit, access: tp.access, nominal: value, halfWidth, span: unit === 'V' ? span : DEFAULT_METER.maxOhms });
+      const edges = band && Number.isFinite(band.max - band.min) ? { min: band.min, max: band.max } : {};
+      observables.push({ testPoint: tp.id, condition, unit, access: tp.access, nominal: value, halfWidth, ...edges, span: unit === 'V' ? span : DEFAULT_METER.maxOhms });
       nominal.push(value);
     }
   }

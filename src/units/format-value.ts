@@ -13,9 +13,8 @@ const PREFIXES: Array<[number, string]> = [
   [1e-12, 'p'],
 ];
 
-export function formatValue(value: number, unit = '', significant = 3): string {
-  if (!Number.isFinite(value)) return `${value > 0 ? '' : '-'}∞${unit ? ` ${unit}` : ''}`;
-  if (value === 0) return `0${unit ? ` ${unit}` : ''}`;
+/** The prefix a value is shown with at `significant` figures (rounding can carry 999.96 k up to 1 M). */
+function prefixFor(value: number, significant: number): [number, string] {
   const magnitude = Math.abs(value);
   let [scale, prefix] = PREFIXES[PREFIXES.length - 1];
   for (const entry of PREFIXES) {
@@ -24,16 +23,41 @@ export function formatValue(value: number, unit = '', significant = 3): string {
       break;
     }
   }
-  let scaled = value / scale;
-  // Rounding can carry into the next prefix (999.96 k -> 1000 k): step up once if so.
-  if (Number(Math.abs(scaled).toPrecision(significant)) >= 1000 && scale < 1e9) {
-    const up = PREFIXES[PREFIXES.findIndex((p) => p[0] === scale) - 1];
-    [scale, prefix] = up;
-    scaled = value / scale;
+  if (Number((magnitude / scale).toPrecision(significant)) >= 1000 && scale < 1e9) {
+    [scale, prefix] = PREFIXES[PREFIXES.findIndex((p) => p[0] === scale) - 1];
   }
-  const text = String(Number(scaled.toPrecision(significant)));
+  return [scale, prefix];
+}
+
+export function formatValue(value: number, unit = '', significant = 3): string {
+  if (!Number.isFinite(value)) return `${value > 0 ? '' : '-'}∞${unit ? ` ${unit}` : ''}`;
+  if (value === 0) return `0${unit ? ` ${unit}` : ''}`;
+  const [scale, prefix] = prefixFor(value, significant);
+  const text = String(Number((value / scale).toPrecision(significant)));
   const sep = unit || prefix ? ' ' : '';
   return `${text}${sep}${prefix}${unit}`;
+}
+
+/**
+ * Values read against each other — a band's edges and its nominal — with one prefix and one count of
+ * decimals, so they line up: "-11.80 V to -11.75 V", not "-11.8 V to -11.75 V", where the dropped
+ * zero makes one edge look coarser than the other. The largest value sets the prefix, and shows
+ * `significant` figures; the others take its decimals. A value that is not finite is shown as
+ * formatValue shows it, and a set whose largest value is below formatReading's floor as zeros.
+ */
+export function formatAligned(values: readonly number[], unit: string, significant: number): string[] {
+  const top = Math.max(0, ...values.filter(Number.isFinite).map(Math.abs));
+  if (top < readingFloor(unit)) return values.map((v) => formatReading(v, unit, significant));
+  const [scale, prefix] = prefixFor(top, significant);
+  const lead = Math.floor(Math.log10(Number((top / scale).toPrecision(significant)))) + 1;
+  const decimals = Math.max(0, significant - lead);
+  const sep = unit || prefix ? ' ' : '';
+  return values.map((v) => {
+    if (!Number.isFinite(v)) return formatValue(v, unit);
+    const text = (v / scale).toFixed(decimals);
+    // A value that rounds to zero is shown unsigned ("0.00", not "-0.00").
+    return `${/^-0(\.0*)?$/.test(text) ? text.slice(1) : text}${sep}${prefix}${unit}`;
+  });
 }
 
 /**
@@ -43,10 +67,11 @@ export function formatValue(value: number, unit = '', significant = 3): string {
  */
 export function formatReading(value: number, unit: string, figures = 4): string {
   if (!Number.isFinite(value)) return formatValue(value, unit);
-  const floor = unit === 'Ω' ? 1e-3 : 1e-5;
-  if (Math.abs(value) < floor) return formatValue(0, unit);
+  if (Math.abs(value) < readingFloor(unit)) return formatValue(0, unit);
   return formatValue(value, unit, figures);
 }
+
+const readingFloor = (unit: string) => (unit === 'Ω' ? 1e-3 : 1e-5);
 
 /** A band is shown to at least this many steps of its last digit, and with at most MOST_FIGURES figures. */
 const BAND_STEPS = 4;

@@ -81,6 +81,6 @@ describe('voltwalk expect on the demo board', () => {
     expect(await run(['expect', '--condition', 'quiescent', '--samples', '0'], io)).toBe(0);
     // The +12 V rail after its protection diode spans about 11.74 V to 11.80 V: three figures
     // would print "11.7 V … 11.8 V", and a reading of 11.70 V would look inside it.
-    expect(io.out()).toMatch(/TP1 +\+12 V rail after D1 +11\.77 V +11\.74 V … 11\.8 V/);
+    expect(io.out()).toMatch(/TP1 +\+12 V rail after D1 +11\.77 V +11\.74 V … 11\.80 V/);
   }, 120_000);
 });

@@ -28,7 +28,7 @@ describe('readings that fit no modelled fault', () => {
     // 16 V: 5 / 0.640 = 7.8 σ from the fault, 107 σ from healthy.
     const [high] = unexplainedReadings(dict, at(16), [0], DEFAULT_METER);
     expect(high).toMatchObject({ testPoint: 'TP1', value: 16, nearest: { id: 'R1/open', predicted: 11 } });
-    expect(high.text).toMatch(/^TP1 = 16 V fits no single modelled fault: a healthy board reads 5 V \(4\.8 V to 5\.2 V\) and the nearest is 11 V with R1 open\./);
+    expect(high.text).toMatch(/^TP1 = 16 V fits no single modelled fault: a healthy board reads 5\.00 V \(4\.80 V to 5\.20 V\) and the nearest is 11 V with R1 open\./);
     // 0 V: 17 σ from the fault, 49 σ from healthy — and nearer healthy in volts.
     const [low] = unexplainedReadings(dict, at(0), [0], DEFAULT_METER);
     expect(low.nearest.id).toBe('none');

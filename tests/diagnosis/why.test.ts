@@ -29,9 +29,16 @@ describe('why a suspect is ranked where it is', () => {
       hypotheses: [hyp('none', [11.77]), hyp('D1/open', [11.7])],
     };
     const read = [{ testPoint: 'TP1', condition: 'quiescent', value: 11.75 }];
-    expect(explain(rail, 0, [{ ...read[0], value: 11.2 }], [0])).toContain('TP1 should read 11.77 V (11.74 V to 11.8 V) on a healthy board; you read 11.2 V');
+    expect(explain(rail, 0, [{ ...read[0], value: 11.2 }], [0])).toContain('TP1 should read 11.77 V (11.74 V to 11.80 V) on a healthy board; you read 11.2 V');
     const text = explain(rail, 1, read, [0]);
     expect(text).toContain('would read 11.7 V');
     expect(text).toContain('you read 11.75 V');
+  });
+
+  it('shows the healthy band with its computed edges where they sit unevenly about the nominal', () => {
+    // Invented: a base voltage of -0.509 mV whose band runs from -1.08 mV to -0.30 mV (half-width 0.39 mV).
+    const base = { ...obs('TP9', -0.509e-3, 0.39e-3), min: -1.08e-3, max: -0.3e-3 };
+    const text = explain({ observables: [base], hypotheses: [hyp('none', [-0.509e-3])] }, 0, [{ testPoint: 'TP9', condition: 'quiescent', value: -0.8e-3 }], [0]);
+    expect(text).toContain('TP9 should read -0.51 mV (-1.08 mV to -0.30 mV)');
   });
 });

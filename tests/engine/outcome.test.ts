@@ -61,7 +61,7 @@ describe('meterAllowance and the band as worded', () => {
   });
 
   it('words a narrow band with enough figures to keep its edges apart', () => {
-    expect(describeBand({ nominal: 11.7739, min: 11.7397, max: 11.7989, unit: 'V' })).toBe('11.74 V to 11.8 V (nominal 11.77 V)');
-    expect(describeBand({ nominal: 4.8, min: 4.65, max: 4.95, unit: 'V' })).toBe('4.65 V to 4.95 V (nominal 4.8 V)');
+    expect(describeBand({ nominal: 11.7739, min: 11.7397, max: 11.7989, unit: 'V' })).toBe('11.74 V to 11.80 V (nominal 11.77 V)');
+    expect(describeBand({ nominal: 4.8, min: 4.65, max: 4.95, unit: 'V' })).toBe('4.65 V to 4.95 V (nominal 4.80 V)');
   });
 });

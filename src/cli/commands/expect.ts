@@ -6,7 +6,7 @@ import { UsageError } from '../../errors.js';
 import { DEMO_BOARD_FILE, loadBoard } from '../../board/index.js';
 import { expectReport, type Band } from '../../circuit/analysis/index.js';
 import { DEFAULT_METER, showReading } from '../../diagnosis/index.js';
-import { bandFigures } from '../../units/index.js';
+import { bandFigures, formatAligned } from '../../units/index.js';
 import type { Board } from '../../schemas/board.js';
 
 const HELP = `Usage: voltwalk expect [--board FILE] [--condition NAME] [--set REF=VALUE]... [--samples N] [--seed N] [--json]
@@ -115,10 +115,15 @@ function jsonBand(b: Band) {
 /** Values as the meter would show them (the same rule as the walk's screens). */
 const show = (v: number, unit: 'V' | 'Ω', figures?: number) => showReading(v, unit, DEFAULT_METER, figures);
 
-/** A band's two ends with enough figures to keep them apart (11.74 V … 11.8 V, not 11.7 V … 11.8 V). */
-const showBand = (lo: number, hi: number, unit: 'V' | 'Ω') => {
-  const figures = bandFigures(lo, hi);
-  return `${show(lo, unit, figures)} … ${show(hi, unit, figures)}`;
+/**
+ * A band's two ends with enough figures to keep them apart and lined up (11.74 V … 11.80 V, not
+ * 11.7 V … 11.8 V), and its nominal to match. Open-ended bands (a resistance up to overload) keep
+ * the meter's own wording for the open end.
+ */
+const showBand = (lo: number, hi: number, unit: 'V' | 'Ω', nominal = lo) => {
+  if (!Number.isFinite(lo) || !Number.isFinite(hi)) return { band: `${show(lo, unit)} … ${show(hi, unit)}`, nominal: show(nominal, unit) };
+  const [min, max, centre] = formatAligned([lo, hi, nominal], unit, bandFigures(lo, hi));
+  return { band: `${min} … ${max}`, nominal: centre };
 };
 
 function table(board: Board, bands: Band[], samples: number, seed: number, subs: Record<string, string>): string {
@@ -131,13 +136,10 @@ function table(board: Board, bands: Band[], samples: number, seed: number, subs:
     const rows = bands.filter((b) => b.condition === condition.id);
     if (rows.length === 0) continue;
     lines.push('', `${condition.label} [${condition.id}]`);
-    const cells = rows.map((b) => [
-      b.id,
-      labels.get(b.id) ?? '',
-      show(b.nominal, b.unit, bandFigures(b.min, b.max)),
-      showBand(b.min, b.max, b.unit),
-      b.mcLow !== undefined ? showBand(b.mcLow, b.mcHigh!, b.unit) : '',
-    ]);
+    const cells = rows.map((b) => {
+      const healthy = showBand(b.min, b.max, b.unit, b.nominal);
+      return [b.id, labels.get(b.id) ?? '', healthy.nominal, healthy.band, b.mcLow !== undefined ? showBand(b.mcLow, b.mcHigh!, b.unit).band : ''];
+    });
     const head = ['TP', 'where', 'expect', 'healthy band', samples > 0 ? '99 % of boards' : ''];
     const widths = head.map((h, i) => Math.max(h.length, ...cells.map((c) => c[i].length)));
     const row = (c: string[]) => `  ${c.map((x, i) => (i === 2 ? x.padStart(widths[i]) : x.padEnd(widths[i]))).join('  ')}`.trimEnd();

@@ -64,7 +64,7 @@ export function ReadingResultScreen({ width, title, stageMap, result, format, is
         </Text>
         <Text>The reading is {OUTCOME_WORDS[result.outcome] ?? result.outcome}. Saved.</Text>
         <Box marginTop={1}>
-          <BandGauge band={result.band} reading={result.value} verdict={verdict} allowance={result.allowance} width={width} format={(v, figures) => format(v, result.band.unit, figures)} />
+          <BandGauge band={result.band} reading={result.value} verdict={verdict} allowance={result.allowance} width={width} unit={result.band.unit} format={(v, figures) => format(v, result.band.unit, figures)} />
         </Box>
       </Box>
     </Frame>

@@ -52,7 +52,7 @@ describe('measure screen', () => {
         'Measure the VCA control voltage at rest.',
         'Set-up: At rest (powered)',
         'Probes: black on the ground loop, red on the TP3 pad',
-        'Expect: 4.65 V to 4.95 V (nominal 4.8 V)',
+        'Expect: 4.65 V to 4.95 V (nominal 4.80 V)',
         '',
         'Reading (V): e.g. 4.2 or 420mV_',
         '',
@@ -106,7 +106,7 @@ describe('reading result', () => {
     const lines = lastFrame()!.split('\n');
     expect(lines[2]).toBe('TP3 · VCA control: 5.1 V HIGH');
     expect(lines[3]).toBe('The reading is above the healthy band. Saved.');
-    expect(lines[5]).toBe('healthy band 4.65 V to 4.95 V, nominal 4.8 V');
+    expect(lines[5]).toBe('healthy band 4.65 V to 4.95 V, nominal 4.80 V');
     const scale = lines[6];
     const marker = lines[7];
     expect(scale).toMatch(/^-+\[=+\|=+\]-+$/);

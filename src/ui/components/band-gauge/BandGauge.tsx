@@ -2,7 +2,7 @@ import React from 'react';
 import { Box, Text } from 'ink';
 import { useColour } from '../../theme/colour-context.js';
 import { toneColour } from '../../theme/tones.js';
-import { bandFigures } from '../../../units/index.js';
+import { bandFigures, formatAligned } from '../../../units/index.js';
 import { layoutGauge, markerLine, type GaugeAllowance, type GaugeBand, type Verdict } from './gauge-layout.js';
 
 interface Props {
@@ -11,6 +11,8 @@ interface Props {
   width: number;
   /** Formats a value with its unit, e.g. "4.80 V", to the given significant figures (default 3). */
   format: (value: number, figures?: number) => string;
+  /** The band's unit: given, the header shows its edges and nominal lined up (11.74 V to 11.80 V). */
+  unit?: 'V' | 'Ω';
   /**
    * The verdict the engine reached, when it differs from a plain comparison with the band edges:
    * the engine allows for the meter's own accuracy, so a reading a hair outside is still in band.
@@ -23,11 +25,13 @@ interface Props {
 export const VERDICT_WORDS: Record<Verdict, string> = { in: 'in band', low: 'LOW', high: 'HIGH' };
 
 /** The healthy band on a horizontal scale and, once read, where the reading fell. */
-export function BandGauge({ band, reading, width, format, verdict, allowance }: Props) {
+export function BandGauge({ band, reading, width, format, unit, verdict, allowance }: Props) {
   const colour = useColour();
   const plain = layoutGauge(band, reading, width, allowance);
   const layout = verdict && plain.verdict ? { ...plain, verdict } : plain;
   const figures = bandFigures(band.min, band.max);
+  const edges = [band.min, band.max, band.nominal];
+  const [min, max, nominal] = unit && edges.every(Number.isFinite) ? formatAligned(edges, unit, figures) : edges.map((v) => format(v, figures));
   // In band only thanks to the meter's accuracy: say so, or the marker beside the brackets puzzles.
   const byAllowance = layout.verdict === 'in' && plain.verdict !== 'in';
   const slack = allowance && (allowance.below > 0 || allowance.above > 0) ? allowanceText(allowance, format) : undefined;
@@ -38,7 +42,7 @@ export function BandGauge({ band, reading, width, format, verdict, allowance }: 
   return (
     <Box flexDirection="column">
       <Text>
-        healthy band {format(band.min, figures)} to {format(band.max, figures)}, nominal {format(band.nominal, figures)}
+        healthy band {min} to {max}, nominal {nominal}
       </Text>
       <Text>
         {before}
