@@ -138,7 +138,13 @@ function sentence(text: string): string {
   return /[.!?]$/.test(t) ? t : `${t}.`;
 }
 
-function firstSentence(text: string): string {
-  const m = /^(.*?[.?!])(\s|$)/.exec(text);
-  return (m ? m[1] : text).slice(0, 120);
+/**
+ * The sentence that names the check: the first of at least MIN_WORDS words, so a short preamble such
+ * as "Power off." does not stand for "Check the meter LEDs' orientation".
+ */
+export function firstSentence(text: string): string {
+  // A sentence ends at . ? or ! before a space: "11.77 V" does not end one.
+  const sentences = text.split(/(?<=[.?!])\s+/).map((s) => s.trim()).filter(Boolean);
+  return (sentences.find((s) => s.split(/\s+/).length >= MIN_WORDS) ?? sentences[0] ?? text).slice(0, 120);
 }
+const MIN_WORDS = 4;

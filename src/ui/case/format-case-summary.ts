@@ -1,4 +1,4 @@
-import { formatValue } from '../../units/index.js';
+import { bandFigures, formatAligned, formatReading, formatValue } from '../../units/index.js';
 import type { CaseSummary } from './case-summary.js';
 
 /**
@@ -27,7 +27,11 @@ export function formatCaseSummary(c: CaseSummary, style: SummaryStyle = 'md'): s
     lines.push('Readings (healthy band in brackets):');
     for (const r of c.readings.slice(0, MAX_READINGS)) {
       const word = OUTCOME_WORD[r.outcome] ?? r.outcome;
-      lines.push(`- ${r.testPoint} ${r.label}, ${r.condition}: ${formatValue(r.value, r.unit)} ${r.outcome === 'in-band' ? word : b(word)} [${formatValue(r.min, r.unit)} to ${formatValue(r.max, r.unit)}]`);
+      // The figures that keep the band's edges apart, for the reading too: against 11.74 V to 11.80 V,
+      // "11.8 V ok [11.7 V to 11.8 V]" would say nothing.
+      const figures = bandFigures(r.min, r.max);
+      const [min, max] = Number.isFinite(r.min) && Number.isFinite(r.max) ? formatAligned([r.min, r.max], r.unit, figures) : [formatValue(r.min, r.unit), formatValue(r.max, r.unit)];
+      lines.push(`- ${r.testPoint} ${r.label}, ${r.condition}: ${formatReading(r.value, r.unit, figures)} ${r.outcome === 'in-band' ? word : b(word)} [${min} to ${max}]`);
     }
     if (c.readings.length > MAX_READINGS) lines.push(`- … and ${c.readings.length - MAX_READINGS} more`);
   } else lines.push('Readings: none yet');

@@ -1,0 +1,36 @@
+import { describe, expect, it } from 'vitest';
+import { firstSentence, type CaseSummary } from '../../../src/ui/case/case-summary.js';
+import { formatCaseSummary } from '../../../src/ui/case/format-case-summary.js';
+
+// Demo numbers: a made-up case, only to check how it is written for the chat.
+const base: CaseSummary = {
+  board: { id: 'demo', name: 'Demo' },
+  tree: { id: 'dark-meter', symptom: 'The level meter stays dark' },
+  wording: 'technician',
+  finished: false,
+  substitutions: [],
+  readings: [],
+  answers: [],
+  skipped: [],
+  suspects: [],
+  unexplained: [],
+};
+
+describe('case summary for the chat', () => {
+  it('writes a rail reading and its band with the figures that keep the band apart', () => {
+    const reading = { testPoint: 'TP1', label: '+12 V rail', condition: 'Powered', text: '', unit: 'V' as const, min: 11.74, max: 11.8, nominal: 11.77 };
+    const text = formatCaseSummary({ ...base, readings: [{ ...reading, value: 11.77, outcome: 'in-band' }, { ...reading, testPoint: 'TP2', value: 11.2, outcome: 'low' }] }, 'text');
+    expect(text).toContain('- TP1 +12 V rail, Powered: 11.77 V ok [11.74 V to 11.80 V]');
+    expect(text).toContain('- TP2 +12 V rail, Powered: 11.2 V LOW [11.74 V to 11.80 V]');
+  });
+
+  it('names a reading no modelled fault explains', () => {
+    expect(formatCaseSummary({ ...base, unexplained: ['TP1 = 11.2 V fits no single modelled fault.'] }, 'text')).toContain('Note: TP1 = 11.2 V fits no single modelled fault.');
+  });
+
+  it('quotes a check by the sentence that names it, not a short preamble', () => {
+    expect(firstSentence("Power off. Check the meter LEDs' orientation: flat edge = cathode. Then go on.")).toBe("Check the meter LEDs' orientation: flat edge = cathode.");
+    expect(firstSentence('Set the supply to 11.77 V and check the current. Then go on.')).toBe('Set the supply to 11.77 V and check the current.');
+    expect(firstSentence('Looks fine?')).toBe('Looks fine?');
+  });
+});
