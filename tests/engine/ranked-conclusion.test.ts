@@ -49,6 +49,9 @@ describe('conclusion with ranked suspects', () => {
     // Without the whole dictionary, the walk builds one for its own conditions (and keeps it).
     expect(dictionaryReady(board, { conditions })).toBe(true);
     const before = walked.current.conclusion!.suspects!;
+    // A healthy board's own readings: "no fault" is among the suspects, worded as such.
+    expect(before.map((s) => s.part)).toContain('none');
+    expect(formatTranscriptText(walked)).toMatch(/ \d+\. no fault — \d+ % — /);
 
     clearDictionaryCache();
     buildDictionary(board);
