@@ -124,7 +124,8 @@ function nextQuestion(board: Board, current: WalkStep, wording: Wordings): CaseS
   const question =
     wording === 'customer'
       ? `Could you take one more reading? First: ${sentence(cond.instructions)} Then place the meter's probes like this: ${sentence(tp.probe)} What number does the meter show, in ${unit}?`
-      : `Measure ${tp.id} (${tp.label}) under "${cond.label}": ${sentence(tp.probe)}`;
+      : // Single quotes inside: the summary puts the whole question in double quotes.
+        `Measure ${tp.id} (${tp.label}) under '${cond.label}': ${sentence(tp.probe)}`;
   return { testPoint: tp.id, label: tp.label, condition: cond.id, conditionLabel: cond.label, probe: tp.probe, question };
 }
 
