@@ -15,7 +15,7 @@ import { faultsFor } from './faults-for.js';
 import { createValueFaultSolver, faultedResistance } from './value-fault-solver.js';
 import { NO_FAULT, type FaultDictionary, type Hypothesis, type Observable } from './dictionary-model.js';
 import { DEFAULT_METER } from './meter.js';
-import { dictionaryKey, loadDictionary, saveDictionary } from './dictionary-cache.js';
+import { dictionaryKey, loadDictionary, saveDictionary } from '../cache/dictionary-cache.js';
 
 export interface DictionaryOptions {
   /** Conditions to predict; every condition of the board when absent. */

@@ -1,4 +1,4 @@
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -7,16 +7,20 @@ import { memoryIo } from '../../src/cli/io.js';
 import { SMALL_BOARD } from '../circuit/analysis/fixtures/small-board.js';
 
 let boardFile: string;
+let cacheDir: string;
 beforeAll(() => {
   const dir = mkdtempSync(join(tmpdir(), 'voltwalk-expect-'));
   boardFile = join(dir, 'small.json');
+  cacheDir = join(dir, 'cache');
   writeFileSync(boardFile, JSON.stringify(SMALL_BOARD, null, 2));
 });
 
+// Every run keeps its report in a cache folder of the test's own, never in the person's home.
+const io = () => memoryIo({ env: { VOLTWALK_CACHE_DIR: cacheDir } });
 const expectCmd = async (...args: string[]) => {
-  const io = memoryIo();
-  const code = await run(['expect', '--board', boardFile, '--samples', '50', ...args], io);
-  return { code, out: io.out(), err: io.err() };
+  const out = io();
+  const code = await run(['expect', '--board', boardFile, '--samples', '50', ...args], out);
+  return { code, out: out.out(), err: out.err() };
 };
 
 describe('voltwalk expect', () => {
@@ -69,18 +73,47 @@ describe('voltwalk expect', () => {
   });
 
   it('refuses a missing board file with a one-line error', async () => {
-    const io = memoryIo();
-    expect(await run(['expect', '--board', '/nonexistent/board.json'], io)).toBe(1);
-    expect(io.err()).toMatch(/no such file/);
+    const r = io();
+    expect(await run(['expect', '--board', '/nonexistent/board.json'], r)).toBe(1);
+    expect(r.err()).toMatch(/no such file/);
+  });
+
+  it('keeps the report for the next run with the same board and options, and ignores a damaged copy', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'voltwalk-expect-cache-'));
+    const cmd = async (...args: string[]) => {
+      const r = memoryIo({ env: { VOLTWALK_CACHE_DIR: dir } });
+      const code = await run(['expect', '--board', boardFile, '--samples', '50', '--json', ...args], r);
+      expect(code).toBe(0);
+      return { out: r.out(), first: (JSON.parse(r.out()) as { testPoints: Array<{ nominal: number }> }).testPoints[0] };
+    };
+    const first = await cmd('--seed', '7');
+    const [file] = readdirSync(dir);
+    expect(readdirSync(dir)).toEqual([file]);
+    // The same options read the kept copy: a number changed in it shows in the output.
+    const data = JSON.parse(readFileSync(join(dir, file), 'utf8'));
+    data.report.bands[0].nominal = 123.456;
+    writeFileSync(join(dir, file), JSON.stringify(data));
+    expect((await cmd('--seed', '7')).first.nominal).toBe(123.456);
+    // --no-cache computes anew and leaves the folder as it was; other options are another file.
+    expect((await cmd('--seed', '7', '--no-cache')).first.nominal).toBe(first.first.nominal);
+    expect(readdirSync(dir)).toEqual([file]);
+    await cmd('--seed', '8');
+    expect(readdirSync(dir)).toHaveLength(2);
+    // A damaged copy is computed again and rewritten, never an error.
+    writeFileSync(join(dir, file), '{"format": "voltwalk-expect/1", "report": {"bands": [{"id": 3}]}}');
+    expect((await cmd('--seed', '7')).out).toBe(first.out);
+    writeFileSync(join(dir, file), 'not json');
+    expect((await cmd('--seed', '7')).out).toBe(first.out);
+    expect(JSON.parse(readFileSync(join(dir, file), 'utf8')).format).toBe('voltwalk-expect/1');
   });
 });
 
 describe('voltwalk expect on the demo board', () => {
   it('words a narrow rail band with enough figures to keep its ends apart', async () => {
-    const io = memoryIo();
-    expect(await run(['expect', '--condition', 'quiescent', '--samples', '0'], io)).toBe(0);
+    const r = io();
+    expect(await run(['expect', '--condition', 'quiescent', '--samples', '0'], r)).toBe(0);
     // The +12 V rail after its protection diode spans about 11.74 V to 11.80 V: three figures
     // would print "11.7 V … 11.8 V", and a reading of 11.70 V would look inside it.
-    expect(io.out()).toMatch(/TP1 +\+12 V rail after D1 +11\.77 V +11\.74 V … 11\.80 V/);
+    expect(r.out()).toMatch(/TP1 +\+12 V rail after D1 +11\.77 V +11\.74 V … 11\.80 V/);
   }, 120_000);
 });

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { measureAll } from '../../src/board/index.js';
 import { applyFault, buildDictionary, type BuiltDictionary } from '../../src/diagnosis/index.js';
-import { loadDictionary, saveDictionary } from '../../src/diagnosis/dictionary-cache.js';
+import { loadDictionary, saveDictionary } from '../../src/cache/dictionary-cache.js';
 import { tinyBoard } from './tiny-board.js';
 
 describe('fault dictionary on the tiny board', () => {

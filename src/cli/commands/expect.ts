@@ -4,12 +4,15 @@ import type { Io } from '../io.js';
 import { parseOptions } from '../args.js';
 import { UsageError } from '../../errors.js';
 import { DEMO_BOARD_FILE, loadBoard } from '../../board/index.js';
-import { expectReport, type Band } from '../../circuit/analysis/index.js';
+import type { Band } from '../../circuit/analysis/index.js';
+import { cachedExpectReport } from '../../cache/expect-cache.js';
+import { defaultCacheDir } from '../../cache/cache-files.js';
+import { version } from '../run.js';
 import { DEFAULT_METER, showReading } from '../../diagnosis/index.js';
 import { bandFigures, formatAligned } from '../../units/index.js';
 import type { Board } from '../../schemas/board.js';
 
-const HELP = `Usage: voltwalk expect [--board FILE] [--condition NAME] [--set REF=VALUE]... [--samples N] [--seed N] [--json]
+const HELP = `Usage: voltwalk expect [--board FILE] [--condition NAME] [--set REF=VALUE]... [--samples N] [--seed N] [--no-cache] [--json]
 
 The expected reading and its healthy band at every test point, under every operating condition of
 the board (or the one named), computed from the board's part values with the circuit solver.
@@ -23,6 +26,8 @@ the 0.5–99.5 % interval of a seeded Monte Carlo run. A reading outside min–m
   --set REF=VALUE   compute with a part replaced, e.g. --set R7=22k (repeatable)
   --samples N       Monte Carlo boards (default 1000; 0 for worst case only)
   --seed N          Monte Carlo seed (default 1)
+  --no-cache        compute anew, neither reading nor writing the copy kept from an earlier run
+                    (kept in ~/.cache/voltwalk, or $VOLTWALK_CACHE_DIR)
   --json            machine-readable output: {"testPoints": [{id, node, condition, nominal, min, max, unit, mcLow, mcHigh}]}
                     (an open circuit, which a meter shows as overload, is null)
 
@@ -44,6 +49,7 @@ export const command: Command = {
         set: { type: 'string', multiple: true },
         samples: { type: 'string' },
         seed: { type: 'string' },
+        'no-cache': { type: 'boolean' },
         json: { type: 'boolean' },
       },
       true,
@@ -64,7 +70,8 @@ export const command: Command = {
           io.stderr(`\r${phase === 'monte-carlo' ? 'Monte Carlo' : 'worst case'}: ${done}/${total}   `);
         }
       : undefined;
-    const report = expectReport(board, { condition: values.condition, substitutions, samples, seed, onProgress });
+    const diskCache = values['no-cache'] ? undefined : { dir: defaultCacheDir(io.env), version: version() };
+    const report = cachedExpectReport(board, { condition: values.condition, substitutions, samples, seed, onProgress }, diskCache);
     if (onProgress) io.stderr('\r\x1b[K');
     if (values.json) {
       io.stdout(`${JSON.stringify({ board: board.id, samples, seed, substitutions, solves: report.solves, failures: report.failures, unsolved: report.unsolved, testPoints: report.bands.map(jsonBand) }, null, 2)}\n`);
