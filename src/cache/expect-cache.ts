@@ -50,14 +50,14 @@ const FileSchema = z.object({
 });
 
 /** The report for these options: from the disk cache when an earlier run made it, else computed (and kept). */
-export function cachedExpectReport(board: Board, options: ExpectOptions, disk?: DiskCache): ExpectReport & { fromCache: boolean } {
-  if (!disk) return { ...expectReport(board, options), fromCache: false };
+export function cachedExpectReport(board: Board, options: ExpectOptions, disk?: DiskCache): ExpectReport {
+  if (!disk) return expectReport(board, options);
   const name = `expect-${expectKey(board, options, disk.version)}.json`;
   const found = FileSchema.safeParse(readCacheFile(disk.dir, name));
   if (found.success) {
     // Typed as the analysis's own report: the file schema cannot drift from it unnoticed.
     const report: ExpectReport = found.data.report;
-    return { ...report, fromCache: true };
+    return report;
   }
   const report = expectReport(board, options);
   const encodeBand = (b: Band) => ({
@@ -69,5 +69,5 @@ export function cachedExpectReport(board: Board, options: ExpectOptions, disk?: 
     ...(b.mcHigh !== undefined ? { mcHigh: encodeNumber(b.mcHigh) } : {}),
   });
   writeCacheFile(disk.dir, name, { format: EXPECT_FORMAT, report: { ...report, bands: report.bands.map(encodeBand) } });
-  return { ...report, fromCache: false };
+  return report;
 }

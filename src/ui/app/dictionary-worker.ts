@@ -4,8 +4,8 @@ import { buildDictionary } from '../../diagnosis/index.js';
 
 /**
  * Builds the board's fault dictionary off the main thread and leaves it in the disk cache, so the
- * screens keep answering keys while the solver works through every fault (seconds to tens of seconds, the first time
- * on a board). The main thread then loads it from the cache in a moment.
+ * screens keep answering keys while the solver works through every fault (seconds to tens of
+ * seconds, the first time on a board). The main thread then loads it from the cache in a moment.
  */
 const { boardFile, substitutions, diskCache } = workerData as {
   boardFile: string;
