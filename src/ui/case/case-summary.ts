@@ -1,4 +1,5 @@
 import type { Board } from '../../schemas/board.js';
+import { HAZARDS } from '../../schemas/tree.js';
 import type { WalkSetup } from '../../engine/walk-machine.js';
 import type { WalkContext } from '../../engine/walk-context.js';
 import { transcriptOf } from '../../engine/transcript.js';
@@ -36,7 +37,8 @@ export interface CaseSummary {
   suspects: Array<{ rank: number; parts: string[]; faults: string[]; probability: number; why: string; where: string[] }>;
   /** Readings no single modelled fault explains, as sentences (the suspects are then only the nearest fits). */
   unexplained: string[];
-  next?: { testPoint: string; label: string; condition: string; conditionLabel: string; probe: string; question: string };
+  /** `question` opens with the powered-work caution when `powered`: the person at the board may not have seen the walk's own. */
+  next?: { testPoint: string; label: string; condition: string; conditionLabel: string; powered: boolean; probe: string; question: string };
   /** Where the walk stands when it is not finished: the step waiting for an answer. */
   waitingAt?: { step: string; kind: string; prompt: string };
 }
@@ -104,15 +106,16 @@ function groupSuspects(board: Board, suspects: Suspects) {
 }
 
 /** The next reading to ask for: the step the walk waits at, else the ranking's suggested probe. */
-function nextQuestion(board: Board, current: WalkStep, wording: Wordings): CaseSummary['next'] {
+export function nextQuestion(board: Board, current: WalkStep, wording: Wordings): CaseSummary['next'] {
   if (current.kind === 'measure' && current.testPoint && current.condition) {
     return {
       testPoint: current.testPoint.id,
       label: current.testPoint.label,
       condition: current.condition.id,
       conditionLabel: current.condition.label,
+      powered: current.condition.powered,
       probe: current.testPoint.probe,
-      question: wording === 'customer' ? current.say.customer : `${current.say.technician} (${current.testPoint.probe})`,
+      question: cautioned(current.condition.powered, wording, wording === 'customer' ? current.say.customer : `${current.say.technician} (${current.testPoint.probe})`),
     };
   }
   const s = current.suggestion;
@@ -126,7 +129,22 @@ function nextQuestion(board: Board, current: WalkStep, wording: Wordings): CaseS
       ? `Could you take one more reading? First: ${sentence(cond.instructions)} Then place the meter's probes like this: ${sentence(tp.probe)} What number does the meter show, in ${unit}?`
       : // Single quotes inside: the summary puts the whole question in double quotes.
         `Measure ${tp.id} (${tp.label}) under '${cond.label}': ${sentence(tp.probe)}`;
-  return { testPoint: tp.id, label: tp.label, condition: cond.id, conditionLabel: cond.label, probe: tp.probe, question };
+  return { testPoint: tp.id, label: tp.label, condition: cond.id, conditionLabel: cond.label, powered: cond.powered, probe: tp.probe, question: cautioned(cond.powered, wording, question) };
+}
+
+/**
+ * What to say before any powered reading, in each wording (SAFETY.md): the supply is mains powered,
+ * and the rails are live once it is on.
+ */
+export const POWERED_CAUTION: Record<Wordings, string> = {
+  technician: `Caution, powered: ${HAZARDS['mains-supply']}; ${HAZARDS.rails}.`,
+  customer:
+    'Please take care: the power supply runs from the mains, so keep it closed and dry. Once the module is on, its ±12 V supply is live: ' +
+    'keep the black probe on ground, move only the red one, and never let a probe tip touch two pins at once.',
+};
+
+function cautioned(powered: boolean, wording: Wordings, question: string): string {
+  return powered ? `${POWERED_CAUTION[wording]} ${question}` : question;
 }
 
 function wasValue(board: Board, ref: string): string | undefined {

@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { firstSentence, type CaseSummary } from '../../../src/ui/case/case-summary.js';
+import { firstSentence, nextQuestion, POWERED_CAUTION, type CaseSummary } from '../../../src/ui/case/case-summary.js';
+import { DEMO_BOARD_FILE, loadBoard, testPointsFor } from '../../../src/board/index.js';
+import type { WalkStep } from '../../../src/engine/step-view.js';
 import { formatCaseSummary } from '../../../src/ui/case/format-case-summary.js';
 
 // Demo numbers: a made-up case, only to check how it is written for the chat.
@@ -32,5 +34,30 @@ describe('case summary for the chat', () => {
     expect(firstSentence("Power off. Check the meter LEDs' orientation: flat edge = cathode. Then go on.")).toBe("Check the meter LEDs' orientation: flat edge = cathode.");
     expect(firstSentence('Set the supply to 11.77 V and check the current. Then go on.')).toBe('Set the supply to 11.77 V and check the current.');
     expect(firstSentence('Looks fine?')).toBe('Looks fine?');
+  });
+});
+
+describe('the next reading asked for in the case', () => {
+  const board = loadBoard(DEMO_BOARD_FILE);
+  const powered = board.conditions.find((c) => c.powered)!;
+  const unpowered = board.conditions.find((c) => !c.powered)!;
+  const tp = (condition: string) => board.testPoints.find((t) => testPointsFor(board, condition).some((x) => x.id === t.id))!;
+  const concluded = (condition: string) => ({ kind: 'conclude', suggestion: { testPoint: tp(condition).id, condition, expectedInformationBits: 1 } }) as unknown as WalkStep;
+
+  it('opens a powered reading with the caution, in the wording of the walk', () => {
+    for (const wording of ['technician', 'customer'] as const) {
+      const next = nextQuestion(board, concluded(powered.id), wording)!;
+      expect(next.powered).toBe(true);
+      expect(next.question.startsWith(POWERED_CAUTION[wording])).toBe(true);
+    }
+    expect(POWERED_CAUTION.customer).toMatch(/mains/);
+    expect(POWERED_CAUTION.customer).toMatch(/±12 V/);
+  });
+
+  it('asks for an unpowered reading without it', () => {
+    const next = nextQuestion(board, concluded(unpowered.id), 'customer')!;
+    expect(next.powered).toBe(false);
+    expect(next.question).not.toContain(POWERED_CAUTION.customer);
+    expect(next.question).toMatch(/^Could you take one more reading\?/);
   });
 });

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { render } from 'ink-testing-library';
 import { SuspectsScreen } from '../../../src/ui/screens/SuspectsScreen.js';
 import { SummaryScreen } from '../../../src/ui/screens/SummaryScreen.js';
-import type { CaseSummary } from '../../../src/ui/case/case-summary.js';
+import { POWERED_CAUTION, type CaseSummary } from '../../../src/ui/case/case-summary.js';
 import { ENTER, press } from '../keys.js';
 
 // Demo numbers: a made-up case on a made-up board, only to check what the screen shows.
@@ -22,7 +22,7 @@ const summary: CaseSummary = {
     { rank: 2, parts: ['C7', 'R21'], faults: ['C7 short', 'R21 open'], probability: 0.3, why: 'both pull TP5 to ground', where: ['by U3'] },
   ],
   unexplained: [],
-  next: { testPoint: 'TP6', label: 'detector', condition: 'hot', conditionLabel: 'DC above threshold', probe: 'red on TP6', question: 'Measure TP6' },
+  next: { testPoint: 'TP6', label: 'detector', condition: 'hot', conditionLabel: 'DC above threshold', powered: false, probe: 'red on TP6', question: 'Measure TP6' },
 };
 
 const part = (ref: string) => ({ ref, where: `where ${ref} is`, value: ref === 'R20' ? '10 kΩ ±1 %' : undefined, bands: ref === 'R20' ? ['brown', 'black', 'black', 'red', 'brown'] : undefined });
@@ -53,6 +53,20 @@ describe('suspects screen', () => {
         's case summary for chat  ·  Esc back  ·  n new walk  ·  q quit',
       ].join('\n'),
     );
+  });
+
+  it('puts the powered-work caution under a suggested probe on a powered board, in the walk\'s wording', () => {
+    for (const wording of ['technician', 'customer'] as const) {
+      const powered = { ...summary, wording, next: { ...summary.next!, powered: true } };
+      const { lastFrame } = render(
+        <SuspectsScreen width={80} title="t" summary={powered} part={part} onSummary={() => {}} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />,
+      );
+      const lines = lastFrame()!.split('\n');
+      const next = lines.findIndex((l) => l.startsWith('Next probe: TP6'));
+      // The caution wraps rather than being cut: every word of it is on screen.
+      const end = lines.indexOf('', next);
+      expect(lines.slice(next + 1, end).map((l) => l.trim()).join(' ').replace(/\u00a0/g, ' ')).toBe(`!! ${POWERED_CAUTION[wording]}`);
+    }
   });
 
   it('says first, and in words, when a reading fits no modelled fault', () => {
