@@ -160,7 +160,7 @@ export function compileTree(tree: Tree, view: BoardView, options: { oscilloscope
     on: {
       'user.back': Object.keys(plans).map((id) => ({ target: `.${id}`, guard: { type: 'backTo', params: { node: id } }, actions: [{ type: 'stepBack', params: { node: id } }] })),
       'user.substitute': [{ guard: { type: 'knownPart' }, actions: [{ type: 'substitute' }] }],
-      'user.probe': [{ actions: [{ type: 'probe' }] }],
+      'user.probe': [{ guard: { type: 'probeAllowed' }, actions: [{ type: 'probe' }] }],
     },
   };
   return { config, plans };

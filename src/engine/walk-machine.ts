@@ -80,6 +80,11 @@ export function walkMachineFor(tree: Tree, view: BoardView, options: WalkOptions
       choiceIs: ({ event }, params: { choice: string }) => event.type === 'user.answer' && event.choice === params.choice,
       backTo: ({ context }, params: { node: string }) => backTarget(context) === params.node,
       knownPart: ({ event }) => event.type === 'user.substitute' && board.parts.some((p) => p.ref === event.ref),
+      // A reading off the tree's route (the ranking's suggested probe) under power — or under a
+      // condition the board does not name — is recorded only once the rails caution has been
+      // acknowledged in this walk, as for the tree's own powered steps.
+      probeAllowed: ({ context, event }) =>
+        event.type === 'user.probe' && (board.conditions.find((c) => c.id === event.condition)?.powered === false || context.acknowledged.includes('rails')),
     },
     actions: {
       enterStep: assign({ trail: ({ context }, params: { node: string }) => [...context.trail, params.node] }),

@@ -27,6 +27,7 @@ export function fakeView(options: { lacks?: string[] } = {}): BoardView {
     quiescent: { id: 'rest', label: 'At rest', powered: true, instructions: 'knobs mid', settings: {} },
     unpowered: { id: 'off', label: 'Off', powered: false, instructions: 'unplug', settings: {} },
   };
+  (board as { conditions: unknown[] }).conditions = Object.values(conditions);
   const lacks = new Set(options.lacks ?? []);
   return {
     board,

@@ -177,6 +177,22 @@ describe('walk machine: runtime safety guard', () => {
     expect(w.actor.getSnapshot().context.readings.out).toBeUndefined();
   });
 
+  it('records a reading off the route under power only once the rails caution was acknowledged', () => {
+    const w = walkTo();
+    // Unpowered: taken at once.
+    w.actor.send({ type: 'user.probe', testPoint: 'TP2', condition: 'off', value: 1e4 });
+    // Powered, before the caution step: refused (not recorded); likewise a condition the board does not name.
+    w.actor.send({ type: 'user.probe', testPoint: 'TP1', condition: 'rest', value: 4.7 });
+    w.actor.send({ type: 'user.probe', testPoint: 'TP1', condition: 'made-up', value: 4.7 });
+    expect(w.actor.getSnapshot().context.extraReadings.map((r) => r.condition)).toEqual(['off']);
+    // After the caution: taken.
+    w.actor.send(answerEvent(w.step(), 'ok'));
+    w.actor.send(readingEvent(w.step(), '10k'));
+    w.actor.send({ type: 'user.acknowledge' });
+    w.actor.send({ type: 'user.probe', testPoint: 'TP1', condition: 'rest', value: 4.7 });
+    expect(w.actor.getSnapshot().context.extraReadings.map((r) => r.condition)).toEqual(['off', 'rest']);
+  });
+
   it('user.back leaves the hold for the step before it', () => {
     const w = walkTo(unsafe());
     w.actor.send(answerEvent(w.step(), 'ok'));
