@@ -9,11 +9,13 @@ import { parseReading } from '../../units/index.js';
 import { defaultCacheDir, dictionaryReady, rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
 import { version } from '../run.js';
 
-const HELP = `Usage: voltwalk rank [--board FILE] [--condition NAME] --reading TP=VALUE ... [--set REF=VALUE]... [--json]
+const HELP = `Usage: voltwalk rank [--board FILE] [--condition NAME] --reading TP=VALUE ... [--set REF=VALUE]... [--limit N] [--no-cache] [--json]
 
 Ranks the likely faulty parts from meter readings, using a fault dictionary computed for the board
 (every modelled single fault simulated under every condition), and suggests the next probe: the one
 expected to narrow the suspects most. Suspects that no test point can tell apart are shown as one group.
+A reading that no modelled fault comes near (beyond 6 σ of every prediction) is named first: the
+suspects are then only the nearest fits, and the probe, the meter range or the supply deserve a look.
 
   --board FILE        board file (default: the bundled demo board)
   --condition NAME    condition the readings were taken under (default: the board's quiescent one)
@@ -23,7 +25,10 @@ expected to narrow the suspects most. Suspects that no test point can tell apart
   --limit N           most suspects to list (default 10)
   --no-cache          rebuild the fault dictionary instead of reusing the one kept from an earlier run
                       (kept in $VOLTWALK_CACHE_DIR, else $XDG_CACHE_HOME/voltwalk or ~/.cache/voltwalk)
-  --json              machine-readable output
+  --json              machine-readable output: {"suspects": [{part, fault, probability, group, why, mode, id}],
+                      "groups": [...], "next": {testPoint, condition, expectedInformationBits},
+                      "unexplained": [{testPoint, condition, value, nearest, text}] (only when some reading fits nothing),
+                      "entropyBits"}
 
 Examples:
   voltwalk rank --reading TP3=11.2
