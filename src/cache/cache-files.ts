@@ -25,10 +25,12 @@ export const decodeNumber = (x: unknown): number => (x === 'NaN' ? NaN : x === '
 export function writeCacheFile(dir: string, name: string, data: unknown): void {
   try {
     mkdirSync(dir, { recursive: true });
-    // Written beside and renamed, so a reader never sees half a file.
+    // Written beside under this process's own name and renamed, so a reader never sees half a file,
+    // even with two runs writing the same entry at once.
     const file = join(dir, name);
-    writeFileSync(`${file}.tmp`, JSON.stringify(data));
-    renameSync(`${file}.tmp`, file);
+    const tmp = `${file}.${process.pid}.tmp`;
+    writeFileSync(tmp, JSON.stringify(data));
+    renameSync(tmp, file);
   } catch {
     // Only slower next time.
   }
