@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { homedir } from 'node:os';
 import { join } from 'node:path';
 
@@ -23,16 +23,17 @@ export const encodeNumber = (x: number): number | string => (Number.isNaN(x) ? '
 export const decodeNumber = (x: unknown): number => (x === 'NaN' ? NaN : x === 'Inf' ? Infinity : x === '-Inf' ? -Infinity : (x as number));
 
 export function writeCacheFile(dir: string, name: string, data: unknown): void {
+  // Written beside under this process's own name and renamed, so a reader never sees half a file,
+  // even with two runs writing the same entry at once.
+  const file = join(dir, name);
+  const tmp = `${file}.${process.pid}.tmp`;
   try {
     mkdirSync(dir, { recursive: true });
-    // Written beside under this process's own name and renamed, so a reader never sees half a file,
-    // even with two runs writing the same entry at once.
-    const file = join(dir, name);
-    const tmp = `${file}.${process.pid}.tmp`;
     writeFileSync(tmp, JSON.stringify(data));
     renameSync(tmp, file);
   } catch {
-    // Only slower next time.
+    // Only slower next time; a half-written temporary is not left behind.
+    rmSync(tmp, { force: true });
   }
 }
 
