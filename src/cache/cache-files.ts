@@ -32,8 +32,12 @@ export function writeCacheFile(dir: string, name: string, data: unknown): void {
     writeFileSync(tmp, JSON.stringify(data));
     renameSync(tmp, file);
   } catch {
-    // Only slower next time; a half-written temporary is not left behind.
-    rmSync(tmp, { force: true });
+    // Only slower next time; a half-written temporary is not left behind if it can be helped.
+    try {
+      rmSync(tmp, { force: true });
+    } catch {
+      // A folder that refuses the write may refuse this too.
+    }
   }
 }
 
