@@ -106,6 +106,13 @@ describe('voltwalk expect', () => {
     expect((await cmd('--seed', '7')).out).toBe(first.out);
     expect(JSON.parse(readFileSync(join(dir, file), 'utf8')).format).toBe('voltwalk-expect/1');
   });
+
+  it('works on when the cache folder cannot be made (a file is in its way)', async () => {
+    const r = memoryIo({ env: { VOLTWALK_CACHE_DIR: join(boardFile, 'cache') } });
+    expect(await run(['expect', '--board', boardFile, '--samples', '20', '--json'], r)).toBe(0);
+    expect(r.err()).toBe('');
+    expect(JSON.parse(r.out()).testPoints.length).toBeGreaterThan(0);
+  });
 });
 
 describe('voltwalk expect on the demo board', () => {
