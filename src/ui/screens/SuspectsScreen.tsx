@@ -49,11 +49,15 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
         </Box>
       ) : null}
       <Box marginTop={1} flexDirection="column">
-        {summary.unexplained.map((u) => (
-          <Tinted key={u} tone="caution">
-            {keepUnitsTogether(`! ${u}`)}
-          </Tinted>
-        ))}
+        {summary.unexplained.length > 0 ? (
+          <Box flexDirection="column" marginBottom={1}>
+            {summary.unexplained.map((u) => (
+              <Tinted key={u} tone="caution">
+                {keepUnitsTogether(`! ${u}`)}
+              </Tinted>
+            ))}
+          </Box>
+        ) : null}
         {summary.suspects.length > 0 ? (
           <>
             <Text>Suspects, most likely first (from your readings):</Text>

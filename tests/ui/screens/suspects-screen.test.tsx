@@ -77,7 +77,9 @@ describe('suspects screen', () => {
     const lines = lastFrame()!.split('\n');
     const note = lines.indexOf('! TP1 = 11.2\u00a0V fits no single modelled fault.');
     expect(note).toBeGreaterThan(0);
-    expect(note).toBeLessThan(lines.indexOf('Suspects, most likely first (from your readings):'));
+    const suspects = lines.indexOf('Suspects, most likely first (from your readings):');
+    expect(note).toBeLessThan(suspects);
+    expect(lines[suspects - 1]).toBe('');
   });
 
   it('writes the case summary on s', async () => {
