@@ -37,8 +37,11 @@ export interface CaseSummary {
   suspects: Array<{ rank: number; parts: string[]; faults: string[]; probability: number; why: string; where: string[] }>;
   /** Readings no single modelled fault explains, as sentences (the suspects are then only the nearest fits). */
   unexplained: string[];
-  /** `question` opens with the powered-work caution when `powered`: the person at the board may not have seen the walk's own. */
-  next?: { testPoint: string; label: string; condition: string; conditionLabel: string; powered: boolean; probe: string; question: string };
+  /**
+   * `caution` is the powered-work caution in the summary's wording, present when the reading needs
+   * power; `question` then opens with it (the person at the board may not have seen the walk's own).
+   */
+  next?: { testPoint: string; label: string; condition: string; conditionLabel: string; caution?: string; probe: string; question: string };
   /** Where the walk stands when it is not finished: the step waiting for an answer. */
   waitingAt?: { step: string; kind: string; prompt: string };
 }
@@ -113,7 +116,7 @@ export function nextQuestion(board: Board, current: WalkStep, wording: Wordings)
       label: current.testPoint.label,
       condition: current.condition.id,
       conditionLabel: current.condition.label,
-      powered: current.condition.powered,
+      ...cautionFor(current.condition.powered, wording),
       probe: current.testPoint.probe,
       question: cautioned(current.condition.powered, wording, wording === 'customer' ? current.say.customer : `${current.say.technician} (${current.testPoint.probe})`),
     };
@@ -129,7 +132,7 @@ export function nextQuestion(board: Board, current: WalkStep, wording: Wordings)
       ? `Could you take one more reading? First: ${sentence(cond.instructions)} Then place the meter's probes like this: ${sentence(tp.probe)} What number does the meter show, in ${unit}?`
       : // Single quotes inside: the summary puts the whole question in double quotes.
         `Measure ${tp.id} (${tp.label}) under '${cond.label}': ${sentence(tp.probe)}`;
-  return { testPoint: tp.id, label: tp.label, condition: cond.id, conditionLabel: cond.label, powered: cond.powered, probe: tp.probe, question: cautioned(cond.powered, wording, question) };
+  return { testPoint: tp.id, label: tp.label, condition: cond.id, conditionLabel: cond.label, ...cautionFor(cond.powered, wording), probe: tp.probe, question: cautioned(cond.powered, wording, question) };
 }
 
 /**
@@ -146,6 +149,8 @@ export const POWERED_CAUTION: Record<Wordings, string> = {
 function cautioned(powered: boolean, wording: Wordings, question: string): string {
   return powered ? `${POWERED_CAUTION[wording]} ${question}` : question;
 }
+
+const cautionFor = (powered: boolean, wording: Wordings) => (powered ? { caution: POWERED_CAUTION[wording] } : {});
 
 function wasValue(board: Board, ref: string): string | undefined {
   const v = board.parts.find((p) => p.ref === ref)?.value;

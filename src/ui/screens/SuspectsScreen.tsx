@@ -3,7 +3,7 @@ import { Box, Text, useInput } from 'ink';
 import { Frame } from '../components/frame/Frame.js';
 import { Tinted } from '../theme/Tinted.js';
 import { keepUnitsTogether } from '../components/prose/keep-units.js';
-import { POWERED_CAUTION, type CaseSummary } from '../case/case-summary.js';
+import type { CaseSummary } from '../case/case-summary.js';
 import { partLine, type PartLineInfo } from '../parts/part-info.js';
 import { listFaults } from '../case/format-case-summary.js';
 
@@ -90,7 +90,7 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
           <Text wrap="truncate-end">
             Next probe: {summary.next.testPoint} {summary.next.label} under "{summary.next.conditionLabel}" — {summary.next.probe}
           </Text>
-          {summary.next.powered ? <Tinted tone="caution">{keepUnitsTogether(`!! ${POWERED_CAUTION[summary.wording]}`)}</Tinted> : null}
+          {summary.next.caution ? <Tinted tone="caution">{keepUnitsTogether(`!! ${summary.next.caution}`)}</Tinted> : null}
         </Box>
       ) : null}
     </Frame>

@@ -47,7 +47,7 @@ describe('the next reading asked for in the case', () => {
   it('opens a powered reading with the caution, in the wording of the walk', () => {
     for (const wording of ['technician', 'customer'] as const) {
       const next = nextQuestion(board, concluded(powered.id), wording)!;
-      expect(next.powered).toBe(true);
+      expect(next.caution).toBe(POWERED_CAUTION[wording]);
       expect(next.question.startsWith(POWERED_CAUTION[wording])).toBe(true);
     }
     expect(POWERED_CAUTION.customer).toMatch(/mains/);
@@ -56,7 +56,7 @@ describe('the next reading asked for in the case', () => {
 
   it('asks for an unpowered reading without it', () => {
     const next = nextQuestion(board, concluded(unpowered.id), 'customer')!;
-    expect(next.powered).toBe(false);
+    expect(next.caution).toBeUndefined();
     expect(next.question).not.toContain(POWERED_CAUTION.customer);
     expect(next.question).toMatch(/^Could you take one more reading\?/);
   });

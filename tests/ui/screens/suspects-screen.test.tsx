@@ -22,7 +22,7 @@ const summary: CaseSummary = {
     { rank: 2, parts: ['C7', 'R21'], faults: ['C7 short', 'R21 open'], probability: 0.3, why: 'both pull TP5 to ground', where: ['by U3'] },
   ],
   unexplained: [],
-  next: { testPoint: 'TP6', label: 'detector', condition: 'hot', conditionLabel: 'DC above threshold', powered: false, probe: 'red on TP6', question: 'Measure TP6' },
+  next: { testPoint: 'TP6', label: 'detector', condition: 'hot', conditionLabel: 'DC above threshold', probe: 'red on TP6', question: 'Measure TP6' },
 };
 
 const part = (ref: string) => ({ ref, where: `where ${ref} is`, value: ref === 'R20' ? '10 kΩ ±1 %' : undefined, bands: ref === 'R20' ? ['brown', 'black', 'black', 'red', 'brown'] : undefined });
@@ -55,9 +55,9 @@ describe('suspects screen', () => {
     );
   });
 
-  it('puts the powered-work caution under a suggested probe on a powered board, in the walk\'s wording', () => {
+  it('puts the powered-work caution under a suggested probe on a powered board, whole', () => {
     for (const wording of ['technician', 'customer'] as const) {
-      const powered = { ...summary, wording, next: { ...summary.next!, powered: true } };
+      const powered = { ...summary, wording, next: { ...summary.next!, caution: POWERED_CAUTION[wording] } };
       const { lastFrame } = render(
         <SuspectsScreen width={80} title="t" summary={powered} part={part} onSummary={() => {}} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />,
       );
