@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { measureAll } from '../../src/board/index.js';
@@ -79,13 +79,18 @@ describe('dictionary kept on disk', () => {
     observables: [
       { testPoint: 'TP1', condition: 'quiescent', unit: 'V', access: 'pad', nominal: 5, halfWidth: 0.2, span: 13 },
       { testPoint: 'TP5', condition: 'unpowered', unit: 'Ω', access: 'header', nominal: 9000, halfWidth: 400, span: 2e7 },
+      // A test point a healthy board reads as open (the meter shows OL): its nominal is Infinity.
+      { testPoint: 'TP6', condition: 'unpowered', unit: 'Ω', access: 'pad', nominal: Infinity, halfWidth: 0, span: 2e7 },
     ],
     hypotheses: [
-      { id: 'none', part: 'none', mode: 'none', fault: 'no fault', prior: 0.05, predictions: [5, 9000] },
-      { id: 'R1/open', part: 'R1', mode: 'open', fault: 'open', prior: 0.5, predictions: [NaN, Infinity] },
-      { id: 'U1/bridge/2-3', part: 'U1', mode: 'bridge', fault: 'solder bridge', prior: 0.45, predictions: [0.1, 9000], variants: [[10.5, 9000], [NaN, Infinity]] },
+      { id: 'none', part: 'none', mode: 'none', fault: 'no fault', prior: 0.05, predictions: [5, 9000, Infinity] },
+      { id: 'R1/open', part: 'R1', mode: 'open', fault: 'open', prior: 0.5, predictions: [NaN, Infinity, Infinity] },
+      { id: 'U1/bridge/2-3', part: 'U1', mode: 'bridge', fault: 'solder bridge', prior: 0.45, predictions: [0.1, 9000, Infinity], variants: [[10.5, 9000, Infinity], [NaN, Infinity, Infinity]] },
     ],
-    faults: [{ id: 'R1/open', part: 'R1', kind: 'resistor', mode: 'open', fault: 'open', prior: 2 }],
+    faults: [
+      { id: 'R1/open', part: 'R1', kind: 'resistor', mode: 'open', fault: 'open', prior: 2 },
+      { id: 'U1/bridge/2-3', part: 'U1', kind: 'opamp-dual', mode: 'bridge', fault: 'solder bridge', prior: 1, pins: ['2', '3'] },
+    ],
     unsettled: new Map([['R1/open', ['quiescent']]]),
     skippedConditions: [],
   };
@@ -98,7 +103,9 @@ describe('dictionary kept on disk', () => {
     expect(back.hypotheses[1].predictions[1]).toBe(Infinity);
     expect(back.unsettled.get('R1/open')).toEqual(['quiescent']);
     expect(back.observables).toEqual(hand.observables);
-    expect(back.hypotheses[2].variants![0]).toEqual([10.5, 9000]);
+    expect(back.observables[2].nominal).toBe(Infinity);
+    expect(back.faults).toEqual(hand.faults);
+    expect(back.hypotheses[2].variants![0]).toEqual([10.5, 9000, Infinity]);
     expect(back.hypotheses[2].variants![1][0]).toBeNaN();
     expect(back.hypotheses[2].variants![1][1]).toBe(Infinity);
     expect(back.hypotheses[1].variants).toBeUndefined();
@@ -110,6 +117,20 @@ describe('dictionary kept on disk', () => {
     expect(loadDictionary(dir, 'k', hand.board)).toBeUndefined();
     writeFileSync(join(dir, 'k.json'), JSON.stringify({ format: 'something-else' }));
     expect(loadDictionary(dir, 'k', hand.board)).toBeUndefined();
+    // Valid JSON of the right format whose insides are wrong: a prediction that is text, an observable
+    // without its unit, one fault too few.
+    saveDictionary(dir, 'k', hand);
+    const good = JSON.parse(readFileSync(join(dir, 'k.json'), 'utf8'));
+    const damaged = (change: (d: typeof good) => void) => {
+      const d = structuredClone(good);
+      change(d);
+      writeFileSync(join(dir, 'k.json'), JSON.stringify(d));
+      return loadDictionary(dir, 'k', hand.board);
+    };
+    expect(damaged(() => {})).toBeDefined();
+    expect(damaged((d) => (d.hypotheses[1].predictions[0] = 'five'))).toBeUndefined();
+    expect(damaged((d) => delete d.observables[0].unit)).toBeUndefined();
+    expect(damaged((d) => d.faults.pop())).toBeUndefined();
     expect(loadDictionary(dir, 'missing', hand.board)).toBeUndefined();
   });
 });
