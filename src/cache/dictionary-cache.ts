@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { cacheKey, decodeNumber, encodeNumber, readCacheFile, writeCacheFile } from './cache-files.js';
-import { PartKindSchema, type Board } from '../schemas/board.js';
+import { AccessSchema, PartKindSchema, type Board } from '../schemas/board.js';
 import type { BuiltDictionary } from '../diagnosis/dictionary.js';
 import type { Observable, Hypothesis } from '../diagnosis/dictionary-model.js';
 import type { Fault } from '../diagnosis/fault.js';
@@ -27,7 +27,7 @@ const ObservableFile = z.object({
   testPoint: z.string(),
   condition: z.string(),
   unit: z.enum(['V', 'Ω']),
-  access: z.enum(['pad', 'leg', 'ic-pin', 'header', 'jack']),
+  access: AccessSchema,
   nominal: stored,
   halfWidth: stored,
   min: stored.optional(),

@@ -1,4 +1,5 @@
 import { clampOhms, meterAccuracy, type MeterSpec } from './meter.js';
+import type { Access } from '../schemas/board.js';
 
 /**
  * The fault dictionary as the ranking sees it: what each hypothesis (no fault, or one fault) predicts
@@ -6,7 +7,7 @@ import { clampOhms, meterAccuracy, type MeterSpec } from './meter.js';
  * the Bayes and entropy arithmetic can be checked on hand-made dictionaries.
  */
 
-export type Access = 'pad' | 'leg' | 'ic-pin' | 'header' | 'jack';
+export type { Access };
 
 /** Easier probes first: a pad beats a leg beats an IC pin beats a header or jack contact. */
 export const ACCESS_RANK: Record<Access, number> = { pad: 0, leg: 1, 'ic-pin': 2, header: 3, jack: 3 };

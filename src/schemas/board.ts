@@ -118,6 +118,10 @@ export const RailSchema = z
   .strict();
 export type Rail = z.infer<typeof RailSchema>;
 
+/** How easy a test point is to reach: a pad beats a leg beats an IC pin beats a header or jack contact. */
+export const AccessSchema = z.enum(['pad', 'leg', 'ic-pin', 'header', 'jack']);
+export type Access = z.infer<typeof AccessSchema>;
+
 export const TestPointSchema = z
   .object({
     id: z.string().regex(/^TP[0-9]{1,3}$/, 'a test point id such as TP3'),
@@ -128,8 +132,7 @@ export const TestPointSchema = z
     quantity: z.enum(['voltage', 'resistance']).default('voltage'),
     /** Where the red and black probes go, in plain words. */
     probe: z.string().min(1),
-    /** How easy it is to reach: a pad beats a leg beats an IC pin. */
-    access: z.enum(['pad', 'leg', 'ic-pin', 'header', 'jack']),
+    access: AccessSchema,
     stage: z.string().optional(),
   })
   .strict();
