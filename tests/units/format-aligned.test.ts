@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { formatAligned } from '../../src/units/index.js';
+import fc from 'fast-check';
+import { bandFigures, formatAligned, parseValue } from '../../src/units/index.js';
 
 describe('values read against each other share a prefix and decimals', () => {
   it('keeps the trailing zero that lines the edges up', () => {
@@ -22,5 +23,24 @@ describe('values read against each other share a prefix and decimals', () => {
 
   it('leaves a value that is not finite to the plain form', () => {
     expect(formatAligned([4.7e3, Infinity], 'Ω', 3)).toEqual(['4.70 kΩ', '∞ Ω']);
+  });
+
+  it('for any band: one prefix and one count of decimals, each value read back within half its last digit', () => {
+    const magnitude = fc.double({ min: 1e-4, max: 1e7, noNaN: true });
+    fc.assert(
+      fc.property(magnitude, fc.double({ min: 1e-4, max: 0.5, noNaN: true }), fc.boolean(), (centre, spread, negative) => {
+        const nominal = negative ? -centre : centre;
+        const [lo, hi] = [nominal - spread * centre, nominal + spread * centre];
+        const figures = bandFigures(lo, hi);
+        const texts = formatAligned([lo, hi, nominal], 'V', figures);
+        const [numbers, suffixes] = [texts.map((t) => t.split(' ')[0]), texts.map((t) => t.split(' ')[1])];
+        const decimals = numbers.map((n) => n.split('.')[1]?.length ?? 0);
+        expect(new Set(suffixes).size).toBe(1);
+        expect(new Set(decimals).size).toBe(1);
+        const step = parseValue(`${10 ** -decimals[0]} ${suffixes[0]}`, { unit: 'V' }).value;
+        texts.forEach((t, k) => expect(Math.abs(parseValue(t, { unit: 'V' }).value - [lo, hi, nominal][k])).toBeLessThanOrEqual(step / 2 + 1e-9 * Math.abs(hi)));
+      }),
+      { numRuns: 300 },
+    );
   });
 });
