@@ -1,4 +1,4 @@
-import { bandFigures, formatAligned, formatValue } from '../units/index.js';
+import { bandFigures, formatBand, formatValue } from '../units/index.js';
 import { NO_FAULT, spreadOf, toDomain, type FaultDictionary, type Hypothesis, type Reading } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 
@@ -100,7 +100,7 @@ export function figuresOf(obs: Observable): number {
 export function healthyBand(obs: Observable, meter: MeterSpec): string {
   if (obs.unit === 'Ω' && !(obs.nominal < meter.maxOhms)) return 'OL (open)';
   if (obs.halfWidth <= 0) return showReading(obs.nominal, obs.unit, meter, figuresOf(obs));
-  const edges = obs.min !== undefined && obs.max !== undefined ? [obs.min, obs.max] : [obs.nominal - obs.halfWidth, obs.nominal + obs.halfWidth];
-  const [nominal, min, max] = formatAligned([obs.nominal, ...edges], obs.unit, figuresOf(obs));
-  return `${nominal} (${min} to ${max})`;
+  const [lo, hi] = obs.min !== undefined && obs.max !== undefined ? [obs.min, obs.max] : [obs.nominal - obs.halfWidth, obs.nominal + obs.halfWidth];
+  const shown = formatBand(lo, hi, obs.nominal, obs.unit);
+  return `${shown.nominal} (${shown.min} to ${shown.max})`;
 }

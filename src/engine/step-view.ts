@@ -1,7 +1,7 @@
 import { UserInputError } from '../errors.js';
 import type { Hazard, Wording } from '../schemas/tree.js';
 import { HAZARDS } from '../schemas/tree.js';
-import { bandFigures, bandsFor, formatAligned, formatReading, formatValue, parseReading, parseValue } from '../units/index.js';
+import { bandsFor, formatBand, formatReading, formatValue, parseReading, parseValue } from '../units/index.js';
 import type { ExpectedBand } from './outcome.js';
 import { rankFor, type Ranking } from './ranking.js';
 import { SAFETY_HOLD, type WalkContext, type WalkEvent } from './walk-context.js';
@@ -62,8 +62,8 @@ export function showValue(value: number, unit: string, figures?: number): string
 export function describeBand(band: ExpectedBand): string {
   if (!Number.isFinite(band.min) && !Number.isFinite(band.max)) return `open: the meter shows overload (OL)`;
   if (!Number.isFinite(band.max)) return `${showValue(band.min, band.unit)} or more, up to overload (nominal ${showValue(band.nominal, band.unit)})`;
-  const [min, max, nominal] = formatAligned([band.min, band.max, band.nominal], band.unit, bandFigures(band.min, band.max));
-  return `${min} to ${max} (nominal ${nominal})`;
+  const shown = formatBand(band.min, band.max, band.nominal, band.unit);
+  return `${shown.min} to ${shown.max} (nominal ${shown.nominal})`;
 }
 
 function partView(walk: WalkSetup, ref: string, context: WalkContext): PartView {

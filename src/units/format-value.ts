@@ -73,6 +73,15 @@ export function formatReading(value: number, unit: string, figures = 4): string 
 
 const readingFloor = (unit: string) => (unit === 'Ω' ? 1e-3 : 1e-5);
 
+/**
+ * A band's edges and nominal as every screen and report shows them: with the figures that keep the
+ * edges apart (bandFigures), lined up (formatAligned). An open end is shown as formatValue shows it.
+ */
+export function formatBand(min: number, max: number, nominal: number, unit: string): { min: string; max: string; nominal: string } {
+  const [lo, hi, centre] = formatAligned([min, max, nominal], unit, bandFigures(min, max));
+  return { min: lo, max: hi, nominal: centre };
+}
+
 /** A band is shown to at least this many steps of its last digit, and with at most MOST_FIGURES figures. */
 const BAND_STEPS = 4;
 const MOST_FIGURES = 5;

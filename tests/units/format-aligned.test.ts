@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { bandFigures, formatAligned, parseValue } from '../../src/units/index.js';
+import { bandFigures, formatAligned, formatBand, parseValue } from '../../src/units/index.js';
 
 describe('values read against each other share a prefix and decimals', () => {
   it('keeps the trailing zero that lines the edges up', () => {
@@ -19,6 +19,13 @@ describe('values read against each other share a prefix and decimals', () => {
   it('shows zero unsigned, and a set below the reading floor as zeros', () => {
     expect(formatAligned([-0.01, 0.01, -1e-9], 'V', 3)).toEqual(['-10.0 mV', '10.0 mV', '0.0 mV']);
     expect(formatAligned([1e-13, 3e-13], 'V', 3)).toEqual(['0 V', '0 V']);
+  });
+
+  it('a band takes the figures that keep its edges apart, lined up', () => {
+    // By hand: 11.74 V to 11.80 V needs four figures (a step of 0.01 V; 0.06 V is 6 steps, ≥ 4).
+    expect(formatBand(11.74, 11.8, 11.77, 'V')).toEqual({ min: '11.74 V', max: '11.80 V', nominal: '11.77 V' });
+    // An open end (a resistance up to overload) keeps the plain form; three figures at the other.
+    expect(formatBand(4.7e3, Infinity, 4.7e3, 'Ω')).toEqual({ min: '4.70 kΩ', max: '∞ Ω', nominal: '4.70 kΩ' });
   });
 
   it('leaves a value that is not finite to the plain form', () => {

@@ -9,7 +9,7 @@ import { cachedExpectReport } from '../../cache/expect-cache.js';
 import { defaultCacheDir } from '../../cache/cache-files.js';
 import { version } from '../run.js';
 import { DEFAULT_METER, showReading } from '../../diagnosis/index.js';
-import { bandFigures, formatAligned } from '../../units/index.js';
+import { formatBand } from '../../units/index.js';
 import type { Board } from '../../schemas/board.js';
 
 const HELP = `Usage: voltwalk expect [--board FILE] [--condition NAME] [--set REF=VALUE]... [--samples N] [--seed N] [--no-cache] [--json]
@@ -129,8 +129,8 @@ const show = (v: number, unit: 'V' | 'Ω', figures?: number) => showReading(v, u
  */
 const showBand = (lo: number, hi: number, unit: 'V' | 'Ω', nominal = lo) => {
   if (!Number.isFinite(lo) || !Number.isFinite(hi)) return { band: `${show(lo, unit)} … ${show(hi, unit)}`, nominal: show(nominal, unit) };
-  const [min, max, centre] = formatAligned([lo, hi, nominal], unit, bandFigures(lo, hi));
-  return { band: `${min} … ${max}`, nominal: centre };
+  const shown = formatBand(lo, hi, nominal, unit);
+  return { band: `${shown.min} … ${shown.max}`, nominal: shown.nominal };
 };
 
 function table(board: Board, bands: Band[], samples: number, seed: number, subs: Record<string, string>): string {

@@ -116,9 +116,8 @@ export function nextQuestion(board: Board, current: WalkStep, wording: Wordings)
       label: current.testPoint.label,
       condition: current.condition.id,
       conditionLabel: current.condition.label,
-      ...cautionFor(current.condition.powered, wording),
       probe: current.testPoint.probe,
-      question: cautioned(current.condition.powered, wording, wording === 'customer' ? current.say.customer : `${current.say.technician} (${current.testPoint.probe})`),
+      ...withCaution(current.condition.powered, wording, wording === 'customer' ? current.say.customer : `${current.say.technician} (${current.testPoint.probe})`),
     };
   }
   const s = current.suggestion;
@@ -132,7 +131,7 @@ export function nextQuestion(board: Board, current: WalkStep, wording: Wordings)
       ? `Could you take one more reading? First: ${sentence(cond.instructions)} Then place the meter's probes like this: ${sentence(tp.probe)} What number does the meter show, in ${unit}?`
       : // Single quotes inside: the summary puts the whole question in double quotes.
         `Measure ${tp.id} (${tp.label}) under '${cond.label}': ${sentence(tp.probe)}`;
-  return { testPoint: tp.id, label: tp.label, condition: cond.id, conditionLabel: cond.label, ...cautionFor(cond.powered, wording), probe: tp.probe, question: cautioned(cond.powered, wording, question) };
+  return { testPoint: tp.id, label: tp.label, condition: cond.id, conditionLabel: cond.label, probe: tp.probe, ...withCaution(cond.powered, wording, question) };
 }
 
 /**
@@ -146,11 +145,12 @@ export const POWERED_CAUTION: Record<Wordings, string> = {
     'keep the black probe on ground, move only the red one, and never let a probe tip touch two pins at once.',
 };
 
-function cautioned(powered: boolean, wording: Wordings, question: string): string {
-  return powered ? `${POWERED_CAUTION[wording]} ${question}` : question;
+/** The question, opened by the caution when the reading needs power. */
+function withCaution(powered: boolean, wording: Wordings, question: string): { caution?: string; question: string } {
+  if (!powered) return { question };
+  const caution = POWERED_CAUTION[wording];
+  return { caution, question: `${caution} ${question}` };
 }
-
-const cautionFor = (powered: boolean, wording: Wordings) => (powered ? { caution: POWERED_CAUTION[wording] } : {});
 
 function wasValue(board: Board, ref: string): string | undefined {
   const v = board.parts.find((p) => p.ref === ref)?.value;

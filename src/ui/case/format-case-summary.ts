@@ -1,4 +1,4 @@
-import { bandFigures, formatAligned, formatReading, formatValue } from '../../units/index.js';
+import { bandFigures, formatBand, formatReading } from '../../units/index.js';
 import type { CaseSummary } from './case-summary.js';
 
 /**
@@ -29,9 +29,8 @@ export function formatCaseSummary(c: CaseSummary, style: SummaryStyle = 'md'): s
       const word = OUTCOME_WORD[r.outcome] ?? r.outcome;
       // The figures that keep the band's edges apart, for the reading too: against 11.74 V to 11.80 V,
       // "11.8 V ok [11.7 V to 11.8 V]" would say nothing.
-      const figures = bandFigures(r.min, r.max);
-      const [min, max] = Number.isFinite(r.min) && Number.isFinite(r.max) ? formatAligned([r.min, r.max], r.unit, figures) : [formatValue(r.min, r.unit), formatValue(r.max, r.unit)];
-      lines.push(`- ${r.testPoint} ${r.label}, ${r.condition}: ${formatReading(r.value, r.unit, figures)} ${r.outcome === 'in-band' ? word : b(word)} [${min} to ${max}]`);
+      const band = formatBand(r.min, r.max, r.nominal, r.unit);
+      lines.push(`- ${r.testPoint} ${r.label}, ${r.condition}: ${formatReading(r.value, r.unit, bandFigures(r.min, r.max))} ${r.outcome === 'in-band' ? word : b(word)} [${band.min} to ${band.max}]`);
     }
     if (c.readings.length > MAX_READINGS) lines.push(`- … and ${c.readings.length - MAX_READINGS} more`);
   } else lines.push('Readings: none yet');

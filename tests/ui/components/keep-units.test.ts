@@ -3,6 +3,8 @@ import { keepUnitsTogether } from '../../../src/ui/components/prose/keep-units.j
 
 const NBSP = '\u00a0';
 
+// Keeping a number and its unit symbol on one line is common practice in typesetting SI values;
+// the unit symbols checked are the SI ones with their prefixes (and °C, %, dBu as the trade writes them).
 describe('a value stays on one line with its unit', () => {
   it('joins a number to the unit symbol after it, prefixes included', () => {
     expect(keepUnitsTogether('the ±12 V rails')).toBe(`the ±12${NBSP}V rails`);

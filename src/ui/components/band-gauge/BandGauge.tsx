@@ -2,7 +2,7 @@ import React from 'react';
 import { Box, Text } from 'ink';
 import { useColour } from '../../theme/colour-context.js';
 import { toneColour } from '../../theme/tones.js';
-import { bandFigures, formatAligned } from '../../../units/index.js';
+import { bandFigures, formatBand } from '../../../units/index.js';
 import { layoutGauge, markerLine, type GaugeAllowance, type GaugeBand, type Verdict } from './gauge-layout.js';
 
 interface Props {
@@ -30,8 +30,10 @@ export function BandGauge({ band, reading, width, format, unit, verdict, allowan
   const plain = layoutGauge(band, reading, width, allowance);
   const layout = verdict && plain.verdict ? { ...plain, verdict } : plain;
   const figures = bandFigures(band.min, band.max);
-  const edges = [band.min, band.max, band.nominal];
-  const [min, max, nominal] = unit && edges.every(Number.isFinite) ? formatAligned(edges, unit, figures) : edges.map((v) => format(v, figures));
+  const { min, max, nominal } =
+    unit && [band.min, band.max, band.nominal].every(Number.isFinite)
+      ? formatBand(band.min, band.max, band.nominal, unit)
+      : { min: format(band.min, figures), max: format(band.max, figures), nominal: format(band.nominal, figures) };
   // In band only thanks to the meter's accuracy: say so, or the marker beside the brackets puzzles.
   const byAllowance = layout.verdict === 'in' && plain.verdict !== 'in';
   const slack = allowance && (allowance.below > 0 || allowance.above > 0) ? allowanceText(allowance, format) : undefined;
