@@ -27,7 +27,7 @@ the 0.5–99.5 % interval of a seeded Monte Carlo run. A reading outside min–m
   --samples N       Monte Carlo boards (default 1000; 0 for worst case only)
   --seed N          Monte Carlo seed (default 1)
   --no-cache        compute anew, neither reading nor writing the copy kept from an earlier run
-                    (kept in ~/.cache/voltwalk, or $VOLTWALK_CACHE_DIR)
+                    (kept in $VOLTWALK_CACHE_DIR, else $XDG_CACHE_HOME/voltwalk or ~/.cache/voltwalk)
   --json            machine-readable output: {"testPoints": [{id, node, condition, nominal, min, max, unit, mcLow, mcHigh}]}
                     (an open circuit, which a meter shows as overload, is null)
 
@@ -127,7 +127,7 @@ const show = (v: number, unit: 'V' | 'Ω', figures?: number) => showReading(v, u
  * 11.7 V … 11.8 V), and its nominal to match. Open-ended bands (a resistance up to overload) keep
  * the meter's own wording for the open end.
  */
-const showBand = (lo: number, hi: number, unit: 'V' | 'Ω', nominal = lo) => {
+const showBand = (lo: number, hi: number, nominal: number, unit: 'V' | 'Ω') => {
   if (!Number.isFinite(lo) || !Number.isFinite(hi)) return { band: `${show(lo, unit)} … ${show(hi, unit)}`, nominal: show(nominal, unit) };
   const shown = formatBand(lo, hi, nominal, unit);
   return { band: `${shown.min} … ${shown.max}`, nominal: shown.nominal };
@@ -144,8 +144,8 @@ function table(board: Board, bands: Band[], samples: number, seed: number, subs:
     if (rows.length === 0) continue;
     lines.push('', `${condition.label} [${condition.id}]`);
     const cells = rows.map((b) => {
-      const healthy = showBand(b.min, b.max, b.unit, b.nominal);
-      return [b.id, labels.get(b.id) ?? '', healthy.nominal, healthy.band, b.mcLow !== undefined ? showBand(b.mcLow, b.mcHigh!, b.unit).band : ''];
+      const healthy = showBand(b.min, b.max, b.nominal, b.unit);
+      return [b.id, labels.get(b.id) ?? '', healthy.nominal, healthy.band, b.mcLow !== undefined ? showBand(b.mcLow, b.mcHigh!, b.nominal, b.unit).band : ''];
     });
     const head = ['TP', 'where', 'expect', 'healthy band', samples > 0 ? '99 % of boards' : ''];
     const widths = head.map((h, i) => Math.max(h.length, ...cells.map((c) => c[i].length)));
