@@ -7,7 +7,9 @@
  * (resistor shorts and misread values, solved in place on one compiled circuit per condition) are
  * timed on their own, the rest being rebuilt circuit by circuit.
  */
-import { DEMO_BOARD_FILE, loadBoard } from '../src/board/index.js';
+import { DEMO_BOARD_FILE, buildCircuit, loadBoard, solvePatiently, testPointsFor } from '../src/board/index.js';
+import type { Board } from '../src/schemas/board.js';
+import { createDcSolver } from '../src/circuit/index.js';
 import { expectBands } from '../src/circuit/analysis/expect-bands.js';
 import { buildDictionary, faultsFor, rankSuspects, type BuiltDictionary, type Reading } from '../src/diagnosis/index.js';
 import { createValueFaultSolver, faultedResistance } from '../src/diagnosis/value-fault-solver.js';
@@ -79,6 +81,35 @@ export async function run(): Promise<void> {
   console.log(`faulty solves (${solves} fault × condition)     median ${fmt(median(buildTimes))}  (${fmt(median(buildTimes) / Math.max(solves, 1))} each; ${unsettled} did not settle)`);
   console.log(`  of which in place (${inPlace} value fault × condition; ${rebuilt} fell back to a rebuild) ${fmt(inPlaceMs)}  (${fmt(inPlaceMs / Math.max(inPlace, 1))} each, compiling included)`);
   console.log(`rank 3 readings, suspects + groups + next       median ${fmt(median(rankTimes))}`);
+  const floor = faultySolveFloor(board, [...built], d.faults.length);
+  console.log(
+    `floor of the faulty solves: ${fmt(floor)} (${(floor / TARGET_MS).toFixed(1)}× the whole target) if every fault's circuit ` +
+      `needed no compiling and started from its own answer (the shortest solve of the healthy circuit, per circuit)`,
+  );
   const cpu = median(cpuTimes) + median(rankTimes);
   console.log(`total ${fmt(total)} wall, ${fmt(cpu)} CPU (median over ${cpuTimes.length} build(s)) against a ${TARGET_MS} ms target: ×${(cpu / TARGET_MS).toFixed(1)} in CPU time`);
+}
+
+/**
+ * The least the faulty solves can cost with this solver: a fault's circuit is the healthy one with
+ * one part changed, the same size, so it can settle no faster than the healthy circuit started
+ * from its own answer (one Newton step found within tolerance, then the convergence check). Per
+ * condition: one circuit when powered, one per ohmmeter placement when not, as the dictionary builds
+ * them. Compiling, pivot planning and every iteration beyond the shortest are left out.
+ */
+function faultySolveFloor(board: Board, conditions: string[], faults: number): number {
+  let perFault = 0;
+  for (const condition of conditions) {
+    const powered = board.conditions.find((c) => c.id === condition)?.powered ?? true;
+    const circuits = powered
+      ? [buildCircuit(board, condition).circuit]
+      : testPointsFor(board, condition).map((tp) => buildCircuit(board, condition, { ohmmeter: { testPoint: tp.id } }).circuit);
+    for (const circuit of circuits) {
+      const solver = createDcSolver(circuit);
+      solver.solve({ initial: solvePatiently(circuit) });
+      const start = solver.x.slice();
+      perFault += median(timeRuns(() => void solver.solveLean({ start }), 50));
+    }
+  }
+  return perFault * faults;
 }

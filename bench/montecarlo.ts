@@ -69,6 +69,24 @@ export async function run(): Promise<void> {
       `target ${TARGET_MS} ms: ${(cpu / TARGET_MS).toFixed(0)}× the target in CPU time`,
   );
 
+  // The least a sample can cost with this solver: every circuit started from its own answer, as a
+  // perfect prediction would start it. At zero deviation the predicted start is the nominal answer,
+  // so a sample there takes the shortest accepted solve (one Newton step found within tolerance,
+  // then the convergence check at the new point), with the setters and readers a sample pays anyway.
+  const zero = new Float64Array(distributions.length);
+  const floorCpu = median(
+    Array.from({ length: 3 }, () => {
+      const f0 = process.cpuUsage();
+      for (let k = 0; k < SAMPLES; k++) ev.evaluate(zero);
+      const f = process.cpuUsage(f0);
+      return (f.user + f.system) / 1000;
+    }),
+  );
+  console.log(
+    `floor: ${SAMPLES} samples each started from its own answer (a perfect prediction): median ${fmt(floorCpu)} CPU, ` +
+      `${(floorCpu / TARGET_MS).toFixed(1)}× the target; the ${SAMPLES}-sample run above is ${(cpu / floorCpu).toFixed(1)}× this floor`,
+  );
+
   // One condition at a time (one run each: the sum is what a per-condition report costs).
   let sum = 0;
   for (const pc of ev.perCondition) {
