@@ -34,6 +34,11 @@ export interface Observable {
 
 export const NO_FAULT = 'none';
 
+/** A hypothesis or suspect in plain words, as every list shows it: "no fault", or the part and its fault ("R21 open"). */
+export function faultLabel(h: { part: string; fault: string }): string {
+  return h.part === NO_FAULT ? h.fault : `${h.part} ${h.fault}`;
+}
+
 export interface Hypothesis {
   /** "none" for the healthy board, else e.g. "R21/open". */
   id: string;

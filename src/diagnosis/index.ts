@@ -7,7 +7,7 @@ export { RankResultSchema, SuspectSchema, SuspectGroupSchema, NextProbeSchema, U
 export { nearestFits, unexplainedReadings, UNEXPLAINED_SIGMAS } from './unexplained.js';
 export { FAULT_MODES, DEFAULT_NO_FAULT_PRIOR, modeWeight, type FaultMode, type FaultModeId } from './fault-modes.js';
 export type { Fault } from './fault.js';
-export { NO_FAULT, ACCESS_RANK, observableKey, type FaultDictionary, type Hypothesis, type Observable, type Reading, type Access } from './dictionary-model.js';
+export { NO_FAULT, faultLabel, ACCESS_RANK, observableKey, type FaultDictionary, type Hypothesis, type Observable, type Reading, type Access } from './dictionary-model.js';
 export { posterior, entropyBits, logLikelihood } from './posterior.js';
 export { nextProbe, expectedEntropyAfter, type NextProbe } from './next-probe.js';
 export { ambiguityGroups, distinguishable, separable } from './ambiguity.js';

@@ -24,6 +24,8 @@ export const SuspectGroupSchema = z
     probability: z.number().min(0).max(1),
     /** Fault ids in the group, most probable first. */
     members: z.array(z.string()),
+    /** The same members in plain words, same order: "no fault", "LED1 fitted backwards". */
+    labels: z.array(z.string()),
     parts: z.array(z.string()),
   })
   .strict();

@@ -1,7 +1,7 @@
 import type { Board } from '../schemas/board.js';
 import { ambiguityGroups } from './ambiguity.js';
 import { buildDictionary, type BuiltDictionary } from './dictionary.js';
-import { rowView, type Reading } from './dictionary-model.js';
+import { faultLabel, NO_FAULT, rowView, type Reading } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 import { nextProbe } from './next-probe.js';
 import { entropyBits, locateReadings, rowPosterior } from './posterior.js';
@@ -79,6 +79,7 @@ export function rankSuspects(board: Board, readings: Reading[], options: RankOpt
       group: g + 1,
       probability: round(mass(members, p)),
       members: members.map((h) => dict.hypotheses[h].id),
+      labels: members.map((h) => faultLabel(dict.hypotheses[h])),
       parts: [...new Set(members.map((h) => dict.hypotheses[h].part))],
     }))
     .filter((g) => g.members.some((id) => shown.some((h) => dict.hypotheses[h].id === id)));
@@ -93,5 +94,5 @@ const mass = (members: number[], p: number[]) => members.reduce((a, h) => a + p[
 const round = (x: number) => Math.round(x * 10000) / 10000;
 const name = (dict: BuiltDictionary, h: number) => {
   const hyp = dict.hypotheses[h];
-  return hyp.id === 'none' ? 'a healthy board' : `${hyp.part} ${hyp.fault}`;
+  return hyp.id === NO_FAULT ? 'a healthy board' : faultLabel(hyp);
 };

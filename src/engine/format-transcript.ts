@@ -1,6 +1,6 @@
 import type { Transcript, TranscriptEntry } from './transcript.js';
 import { showValue, type PartView, type WalkStep } from './step-view.js';
-import { NO_FAULT } from '../diagnosis/index.js';
+import { faultLabel } from '../diagnosis/index.js';
 
 export type Wording = 'technician' | 'customer';
 
@@ -36,7 +36,7 @@ function currentLines(step: WalkStep, wording: Wording): string[] {
     for (const u of c.unexplained ?? []) lines.push(`  ! ${u}`);
     if (c.suspects?.length) {
       lines.push('  Ranked suspects (from the readings):');
-      c.suspects.slice(0, 5).forEach((s, i) => lines.push(`    ${i + 1}. ${s.part === NO_FAULT ? s.fault : `${s.part} ${s.fault}`} — ${(s.probability * 100).toFixed(0)} % — ${s.why}`));
+      c.suspects.slice(0, 5).forEach((s, i) => lines.push(`    ${i + 1}. ${faultLabel(s)} — ${(s.probability * 100).toFixed(0)} % — ${s.why}`));
     } else if (c.rankingNote) {
       lines.push(`  (${c.rankingNote})`);
     }

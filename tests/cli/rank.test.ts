@@ -75,6 +75,30 @@ describe('voltwalk rank', () => {
     if (next >= 0 && /under "powered"/.test(out)) expect(out.indexOf('Caution before this powered measurement')).toBeLessThan(next);
   });
 
+  it('echoes a reading with the figures typed, and names group members in plain words', async () => {
+    const { out } = await rank('--reading', 'TP1=11.77');
+    expect(out).toContain('readings TP1 = 11.77 V (quiescent)');
+    const json = RankResultSchema.parse(JSON.parse((await rank('--reading', 'TP1=11.77', '--json')).out));
+    const suspects = new Map(json.suspects.map((s) => [s.id, s]));
+    let checked = 0;
+    for (const g of json.groups) {
+      expect(g.labels).toHaveLength(g.members.length);
+      g.members.forEach((id, k) => {
+        const s = suspects.get(id);
+        if (!s) return;
+        expect(g.labels[k]).toBe(id === 'none' ? 'no fault' : `${s.part} ${s.fault}`);
+        checked++;
+      });
+    }
+    expect(checked).toBeGreaterThan(1);
+    // The text lists the shared groups by those labels, never by ids such as "R2/open".
+    const shared = json.groups.filter((g) => g.members.length > 1);
+    const groupLines = out.split('\n').filter((l) => /^  group \d+ \(/.test(l));
+    expect(groupLines).toHaveLength(shared.length);
+    expect(shared.length).toBeGreaterThan(0);
+    for (const line of groupLines) expect(line).not.toMatch(/[A-Z]+\d+\//);
+  });
+
   it('--set: a part as fitted changes what healthy means', async () => {
     const board = tinyBoard();
     const fitted = { ...board, parts: board.parts.map((p) => (p.ref === 'R2' ? { ...p, value: '5k6' } : p)) };

@@ -6,7 +6,7 @@ import type { Board } from '../../schemas/board.js';
 import { HAZARDS } from '../../schemas/tree.js';
 import { DEMO_BOARD_FILE, findCondition, findTestPoint, loadBoard, withSubstitutions } from '../../board/index.js';
 import { parseReading } from '../../units/index.js';
-import { defaultCacheDir, dictionaryReady, rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
+import { DEFAULT_METER, defaultCacheDir, dictionaryReady, faultLabel, rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
 import { version } from '../run.js';
 
 const HELP = `Usage: voltwalk rank [--board FILE] [--condition NAME] --reading TP=VALUE ... [--set REF=VALUE]... [--limit N] [--no-cache] [--json]
@@ -26,7 +26,8 @@ suspects are then only the nearest fits, and the probe, the meter range or the s
   --no-cache          rebuild the fault dictionary instead of reusing the one kept from an earlier run
                       (kept in $VOLTWALK_CACHE_DIR, else $XDG_CACHE_HOME/voltwalk or ~/.cache/voltwalk)
   --json              machine-readable output: {"suspects": [{part, fault, probability, group, why, mode, id}],
-                      "groups": [...], "next": {testPoint, condition, expectedInformationBits},
+                      "groups": [{group, probability, members (ids), labels (plain words), parts}],
+                      "next": {testPoint, condition, expectedInformationBits},
                       "unexplained": [{testPoint, condition, value, nearest, text}] (only when some reading fits nothing),
                       "entropyBits"}
 
@@ -113,22 +114,23 @@ function toText(board: Board, readings: Reading[], result: RankResult): string {
   const lines: string[] = [];
   const shown = readings.map((r) => {
     const tp = board.testPoints.find((t) => t.id === r.testPoint)!;
-    return `${r.testPoint} = ${showReading(r.value, tp.quantity === 'voltage' ? 'V' : 'Ω')} (${r.condition})`;
+    // As the walk echoes a reading: four figures, so 11.77 V typed is not shown back as 11.8 V.
+    return `${r.testPoint} = ${showReading(r.value, tp.quantity === 'voltage' ? 'V' : 'Ω', DEFAULT_METER, 4)} (${r.condition})`;
   });
   lines.push(`${board.name}: ${shown.length ? `readings ${shown.join(', ')}` : 'no readings yet — suspects by prior likelihood only'}`);
   lines.push('');
   for (const u of result.unexplained ?? []) lines.push(`! ${u.text}`, '');
   lines.push('Suspects, most likely first:');
-  const width = Math.max(...result.suspects.map((s) => label(s).length), 10);
+  const width = Math.max(...result.suspects.map((s) => faultLabel(s).length), 10);
   result.suspects.forEach((s, i) => {
-    lines.push(`  ${String(i + 1).padStart(2)}. ${label(s).padEnd(width)}  ${percent(s.probability).padStart(6)}  group ${s.group}`);
+    lines.push(`  ${String(i + 1).padStart(2)}. ${faultLabel(s).padEnd(width)}  ${percent(s.probability).padStart(6)}  group ${s.group}`);
     lines.push(`      why: ${s.why}`);
   });
   const shared = result.groups.filter((g) => g.members.length > 1);
   if (shared.length) {
     lines.push('');
     lines.push('Groups no test point can split (fix or inspect together):');
-    for (const g of shared) lines.push(`  group ${g.group} (${percent(g.probability)}): ${g.members.slice(0, 8).join(', ')}${g.members.length > 8 ? ` and ${g.members.length - 8} more` : ''}`);
+    for (const g of shared) lines.push(`  group ${g.group} (${percent(g.probability)}): ${g.labels.slice(0, 8).join(', ')}${g.labels.length > 8 ? ` and ${g.labels.length - 8} more` : ''}`);
   }
   lines.push('');
   if (result.next) {
@@ -146,5 +148,4 @@ function toText(board: Board, readings: Reading[], result: RankResult): string {
   return `${lines.join('\n')}\n`;
 }
 
-const label = (s: RankResult['suspects'][number]) => (s.part === 'none' ? 'no fault' : `${s.part} ${s.fault}`);
 const percent = (p: number) => `${(p * 100).toFixed(p >= 0.1 ? 0 : 1)} %`;

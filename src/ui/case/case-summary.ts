@@ -5,7 +5,7 @@ import type { WalkContext } from '../../engine/walk-context.js';
 import { transcriptOf } from '../../engine/transcript.js';
 import type { WalkStep } from '../../engine/step-view.js';
 import type { Wordings } from '../walk/wording.js';
-import { NO_FAULT } from '../../diagnosis/dictionary-model.js';
+import { faultLabel, NO_FAULT } from '../../diagnosis/dictionary-model.js';
 
 /**
  * A walk told as a case, for whoever picks it up next (a colleague, the support chat): the board
@@ -99,7 +99,7 @@ function groupSuspects(board: Board, suspects: Suspects) {
   return [...groups.values()]
     .map((members) => ({
       parts: [...new Set(members.map((m) => m.part).filter((p) => p !== NO_FAULT))],
-      faults: members.map((m) => (m.part === NO_FAULT ? m.fault : `${m.part} ${m.fault}`)),
+      faults: members.map(faultLabel),
       probability: members.reduce((sum, m) => sum + m.probability, 0),
       why: members[0].why,
       where: [...new Set(members.map((m) => board.parts.find((p) => p.ref === m.part)?.where).filter((w): w is string => Boolean(w)))],
