@@ -40,3 +40,12 @@ export class UsageError extends Error {
     this.name = 'UsageError';
   }
 }
+
+/** Why a file could not be read, in the words every "cannot read FILE" message uses. */
+export function whyUnreadable(error: unknown): string {
+  const code = (error as NodeJS.ErrnoException | undefined)?.code;
+  if (code === 'ENOENT') return 'no such file';
+  if (code === 'EISDIR') return 'is a folder, not a file';
+  if (code === 'EACCES' || code === 'EPERM') return 'cannot be read (permission denied)';
+  return `cannot be read (${code ?? 'error'})`;
+}

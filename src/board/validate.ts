@@ -1,7 +1,7 @@
 import { readFileSync, statSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { BoardSchema, type Board } from '../schemas/board.js';
-import { UserInputError, type Problem } from '../errors.js';
+import { UserInputError, whyUnreadable, type Problem } from '../errors.js';
 import { shapeProblems } from './shape-problems.js';
 import { meaningProblems } from './check-meaning.js';
 import { parseJson } from './parse-json.js';
@@ -20,13 +20,12 @@ export function checkBoardFile(file: string): { board?: Board; problems: Problem
   try {
     text = readFileSync(file, 'utf8');
   } catch (error) {
-    const code = (error as NodeJS.ErrnoException).code;
     return {
       problems: [
         {
           code: 'board.unreadable',
           file,
-          message: code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder' : `cannot be read (${code ?? 'error'})`,
+          message: whyUnreadable(error),
           accepted: 'a readable board file (JSON, "format": "voltwalk-board/1")',
         },
       ],

@@ -1,6 +1,6 @@
 import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { UserInputError, type Problem } from '../errors.js';
+import { UserInputError, whyUnreadable, type Problem } from '../errors.js';
 import type { Board } from '../schemas/board.js';
 import type { Tree } from '../schemas/tree.js';
 import { TREES_DIR } from '../paths.js';
@@ -13,8 +13,7 @@ export function readTree(file: string, boards: Board[] = bundledBoards()): { tre
   try {
     text = readFileSync(file, 'utf8');
   } catch (error) {
-    const reason = (error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : 'cannot be read';
-    return { problems: [{ code: 'tree.unreadable', file, message: `tree file ${reason}`, accepted: 'a path to a voltwalk-tree/1 JSON file' }] };
+    return { problems: [{ code: 'tree.unreadable', file, message: `tree file: ${whyUnreadable(error)}`, accepted: 'a path to a voltwalk-tree/1 JSON file' }] };
   }
   let raw: unknown;
   try {

@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { readFileSync, renameSync, writeFileSync, unlinkSync } from 'node:fs';
 import { createActor } from 'xstate';
 import { z } from 'zod';
-import { UserInputError, type Problem } from '../errors.js';
+import { UserInputError, whyUnreadable, type Problem } from '../errors.js';
 import type { Board } from '../schemas/board.js';
 import type { Tree } from '../schemas/tree.js';
 import { SAFETY_HOLD, WalkContextSchema } from './walk-context.js';
@@ -94,12 +94,16 @@ function reviveNumbers(key: string, value: unknown): unknown {
 
 /** Reads a session file; a wrong version or a damaged file is a UserInputError, and the file is left as it is. */
 export function loadSession(file: string): Session {
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    throw problem(file, 'session.missing', `session file: ${whyUnreadable(error)}`, `a ${SESSION_FORMAT} file written by voltwalk`);
+  }
   let raw: unknown;
   try {
-    raw = JSON.parse(readFileSync(file, 'utf8'), reviveNumbers);
-  } catch (error) {
-    const code = (error as NodeJS.ErrnoException).code;
-    if (code === 'ENOENT') throw problem(file, 'session.missing', 'no such session file', 'a file written by voltwalk');
+    raw = JSON.parse(text, reviveNumbers);
+  } catch {
     throw problem(file, 'session.corrupt', 'the session file is damaged (not valid JSON)', `a ${SESSION_FORMAT} file written by voltwalk`);
   }
   const format = (raw as { format?: unknown } | null)?.format;

@@ -1,6 +1,6 @@
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { run } from '../../src/cli/run.js';
 import { memoryIo } from '../../src/cli/io.js';
@@ -119,6 +119,11 @@ describe('voltwalk walk', () => {
     const broken = await walk('--tree', 'first-power-up', '--answers', write('broken.json', '{"rail-pos": '));
     expect(broken.code).toBe(1);
     expect(broken.err).toContain('not valid JSON');
+    // A folder given for the answers file is named as one, not called broken JSON.
+    const folder = await walk('--tree', 'first-power-up', '--answers', dirname(answersFile));
+    expect(folder.code).toBe(1);
+    expect(folder.err).toMatch(/: answers file: is a folder, not a file \(accepted: /);
+    expect(folder.err.trim().split('\n')).toHaveLength(1);
     const badSet = await walk('--tree', 'first-power-up', '--answers', answersFile, '--set', 'R999=1k');
     expect(badSet.code).toBe(1);
     expect(badSet.err).toContain('R999');

@@ -106,6 +106,9 @@ describe('sessions', () => {
 
   it('a missing file and an unwritable path are clear errors', () => {
     expect(failure(() => loadSession(join(dir(), 'nope.json'))).problems[0].code).toBe('session.missing');
+    // A folder is said to be one; "damaged" would send the person looking for a broken file.
+    const folder = failure(() => loadSession(dir()));
+    expect(folder.problems[0].message).toBe('session file: is a folder, not a file');
     const { session } = walkedSession();
     expect(failure(() => saveSession(join(dir(), 'no-such-dir', 'x.json'), session)).problems[0].code).toBe('session.unwritable');
   });

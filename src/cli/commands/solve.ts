@@ -3,7 +3,7 @@ import { resolve } from 'node:path';
 import type { Command } from '../command.js';
 import type { Io } from '../io.js';
 import { parseOptions } from '../args.js';
-import { UsageError, UserInputError } from '../../errors.js';
+import { UsageError, UserInputError, whyUnreadable } from '../../errors.js';
 import type { Board, Condition } from '../../schemas/board.js';
 import { BOARD_FORMAT } from '../../schemas/board.js';
 import { buildCircuit, findCondition, loadBoard, roleCondition } from '../../board/index.js';
@@ -70,8 +70,7 @@ export function loadCircuitFile(file: string, conditionId: string | undefined): 
   try {
     text = readFileSync(file, 'utf8');
   } catch (error) {
-    const why = (error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : 'cannot be read';
-    throw new UserInputError({ code: 'solve.file', file, message: `${why}`, accepted: 'a SPICE-subset netlist or a board file' });
+    throw new UserInputError({ code: 'solve.file', file, message: whyUnreadable(error), accepted: 'a SPICE-subset netlist or a board file' });
   }
   if (isBoardText(text)) {
     const board = loadBoard(file);

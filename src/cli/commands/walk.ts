@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import type { Command } from '../command.js';
 import { parseOptions } from '../args.js';
-import { UsageError, UserInputError } from '../../errors.js';
+import { UsageError, UserInputError, whyUnreadable } from '../../errors.js';
 import { DEMO_BOARD_FILE, loadBoard } from '../../board/index.js';
 import { defaultCacheDir } from '../../diagnosis/index.js';
 import { version } from '../run.js';
@@ -42,12 +42,18 @@ Examples:
 `;
 
 function readAnswers(file: string): Answers {
+  const accepted = 'a JSON object keyed by step id, e.g. {"rail-pos": "11.9 V"}';
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    throw new UserInputError({ code: 'answers.unreadable', file, message: `answers file: ${whyUnreadable(error)}`, accepted });
+  }
   let raw: unknown;
   try {
-    raw = JSON.parse(readFileSync(file, 'utf8'));
-  } catch (error) {
-    const missing = (error as NodeJS.ErrnoException).code === 'ENOENT';
-    throw new UserInputError({ code: 'answers.unreadable', file, message: missing ? 'no such answers file' : 'the answers file is not valid JSON', accepted: 'a JSON object keyed by step id, e.g. {"rail-pos": "11.9 V"}' });
+    raw = JSON.parse(text);
+  } catch {
+    throw new UserInputError({ code: 'answers.unreadable', file, message: 'the answers file is not valid JSON', accepted });
   }
   if (!raw || typeof raw !== 'object' || Array.isArray(raw)) {
     throw new UserInputError({ code: 'answers.shape', file, message: 'the answers file is not a JSON object', accepted: 'a JSON object keyed by step id' });
