@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { run } from '../../src/cli/run.js';
@@ -33,6 +33,21 @@ describe('voltwalk check', () => {
       'broken-role-target.json: roles.testPoints.detector-output: no test point "TP9" — did you mean "TP1"? (accepted: a test point id: TP1, TP2, TP3, TP4, TP5, TP6, TP7, TP8)',
     ]);
     expect(out.err()).toBe('voltwalk check: 2 problems in 2 of 3 files\n');
+  });
+  it('a folder stands for every .json file in it and its subfolders, named under the folder as typed', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'voltwalk-check-'));
+    const board = readFileSync(join(fixtures, 'small-amp.json'), 'utf8');
+    mkdirSync(join(dir, 'kits', 'sub'), { recursive: true });
+    writeFileSync(join(dir, 'kits', 'b.json'), board);
+    writeFileSync(join(dir, 'kits', 'sub', 'a.json'), '{"format": ');
+    writeFileSync(join(dir, 'kits', 'notes.txt'), 'not checked');
+    const out = memoryIo({ cwd: dir });
+    expect(await run(['check', 'kits'], out)).toBe(1);
+    const lines = out.out().split('\n').filter(Boolean);
+    expect(lines).toHaveLength(2);
+    expect(lines[0]).toBe('ok  kits/b.json  (board small-amp: 19 parts, 8 test points, 3 conditions)');
+    expect(lines[1]).toMatch(/^kits\/sub\/a\.json: .*not valid JSON/);
+    expect(out.err()).toBe('voltwalk check: 1 problem in 1 of 2 files\n');
   });
   it('--json: the same verdicts as data', async () => {
     const out = io();

@@ -1,5 +1,5 @@
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 import type { Command } from '../command.js';
 import { parseOptions } from '../args.js';
 import { UsageError, formatProblem, type Problem } from '../../errors.js';
@@ -18,7 +18,8 @@ with the file, the path inside it and the accepted form.
 
 Exit status: 0 when every file is valid, 1 when any is not, 2 for a usage mistake.
 
-  FILE      one or more board or tree files
+  FILE      one or more board or tree files; a folder stands for every .json file in it and
+            in its subfolders (e.g. voltwalk check trees)
   --json    machine-readable output: {"ok": bool, "files": [{"file", "kind", "ok", "summary", "problems"}]}
 
 Examples:
@@ -86,12 +87,13 @@ export const command: Command = {
   async run(args, io) {
     const { values, positionals } = parseOptions(args, { json: { type: 'boolean' } });
     if (positionals.length === 0) throw new UsageError('check needs at least one FILE');
+    const files = positionals.flatMap((f) => expandFolder(f, io.cwd));
     const reports: FileReport[] = [];
-    for (const f of positionals) reports.push(await checkOne(resolve(io.cwd, f)));
-    // Name files as the user typed them.
+    for (const f of files) reports.push(await checkOne(resolve(io.cwd, f)));
+    // Name files as the user typed them (a folder's files by the folder's name as typed).
     reports.forEach((r, i) => {
-      r.file = positionals[i];
-      r.problems = r.problems.map((p) => ({ ...p, file: positionals[i] }));
+      r.file = files[i];
+      r.problems = r.problems.map((p) => ({ ...p, file: files[i] }));
     });
     const ok = reports.every((r) => r.ok);
     if (values.json) {
@@ -110,3 +112,23 @@ export const command: Command = {
     return ok ? 0 : 1;
   },
 };
+
+/**
+ * A folder as the .json files in it and its subfolders, sorted, named under the folder as typed;
+ * anything else as given (a missing file is reported by checkOne). An empty folder stays itself,
+ * so it is reported rather than silently checking nothing.
+ */
+function expandFolder(typed: string, cwd: string): string[] {
+  let isFolder = false;
+  try {
+    isFolder = statSync(resolve(cwd, typed)).isDirectory();
+  } catch {
+    return [typed];
+  }
+  if (!isFolder) return [typed];
+  const found = (readdirSync(resolve(cwd, typed), { recursive: true, encoding: 'utf8' }) as string[])
+    .filter((name) => name.endsWith('.json'))
+    .sort()
+    .map((name) => join(typed, name));
+  return found.length ? found : [typed];
+}
