@@ -14,7 +14,7 @@ export { ambiguityGroups, distinguishable, separable } from './ambiguity.js';
 export { DEFAULT_METER, meterAccuracy, type MeterSpec } from './meter.js';
 export { colourMisreads, type Misread } from './colour-misreads.js';
 export { legOrderOf, pinLanding, type LegOrder } from './transistor-pinouts.js';
-export { showReading } from './why.js';
+export { groupMembersText, showReading } from './why.js';
 export { DICTIONARY_FORMAT } from '../cache/dictionary-cache.js';
 export { defaultCacheDir } from '../cache/cache-files.js';
 export { restrictDictionary } from './restrict-dictionary.js';

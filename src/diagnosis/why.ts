@@ -104,3 +104,9 @@ export function healthyBand(obs: Observable, meter: MeterSpec): string {
   const shown = formatBand(lo, hi, obs.nominal, obs.unit);
   return `${shown.nominal} (${shown.min} to ${shown.max})`;
 }
+
+/** An ambiguity group's members for a list line: the first few in plain words, then how many more. */
+export function groupMembersText(labels: readonly string[], shown = 8): string {
+  const head = labels.slice(0, shown).join(', ');
+  return labels.length > shown ? `${head} and ${labels.length - shown} more` : head;
+}

@@ -1,6 +1,8 @@
 import type { Transcript, TranscriptEntry } from './transcript.js';
 import { showValue, type PartView, type WalkStep } from './step-view.js';
-import { faultLabel } from '../diagnosis/index.js';
+import { faultLabel, groupMembersText } from '../diagnosis/index.js';
+
+const percent = (p: number) => `${(p * 100).toFixed(0)} %`;
 
 export type Wording = 'technician' | 'customer';
 
@@ -36,7 +38,14 @@ function currentLines(step: WalkStep, wording: Wording): string[] {
     for (const u of c.unexplained ?? []) lines.push(`  ! ${u}`);
     if (c.suspects?.length) {
       lines.push('  Ranked suspects (from the readings):');
-      c.suspects.slice(0, 5).forEach((s, i) => lines.push(`    ${i + 1}. ${faultLabel(s)} — ${(s.probability * 100).toFixed(0)} % — ${s.why}`));
+      const shown = c.suspects.slice(0, 5);
+      const shared = (c.groups ?? []).filter((g) => g.labels.length > 1 && shown.some((s) => s.group === g.group));
+      const inShared = new Set(shared.map((g) => g.group));
+      shown.forEach((s, i) => lines.push(`    ${i + 1}. ${faultLabel(s)} — ${percent(s.probability)}${inShared.has(s.group) ? ` (group ${s.group})` : ''} — ${s.why}`));
+      if (shared.length) {
+        lines.push('  Groups no test point here can split (fix or inspect together):');
+        for (const g of shared) lines.push(`    group ${g.group}, ${percent(g.probability)} together: ${groupMembersText(g.labels)}`);
+      }
     } else if (c.rankingNote) {
       lines.push(`  (${c.rankingNote})`);
     }

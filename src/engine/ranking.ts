@@ -7,6 +7,8 @@ type RankResult = ReturnType<typeof rankSuspects>;
 
 export interface Ranking {
   suspects?: RankResult['suspects'];
+  /** The ambiguity groups of the suspects shown, whole: every member and the group's whole probability. */
+  groups?: RankResult['groups'];
   next?: RankResult['next'];
   /** Readings no single modelled fault explains, each as a sentence for the person (see diagnosis/unexplained.ts). */
   unexplained?: string[];
@@ -36,8 +38,8 @@ export function rankFor(walk: WalkSetup, context: WalkContext): Ranking {
     // `voltwalk rank` keeps it on disk), holds these conditions' predictions too: cut them out rather
     // than solve them again here.
     const dictionary = dictionaryReady(board, whole) ? restrictDictionary(buildDictionary(board, whole), conditions) : undefined;
-    const { suspects, next, unexplained } = rankSuspects(board, readings, { substitutions: context.substitutions, conditions, dictionary });
-    return { suspects, next, ...(unexplained ? { unexplained: unexplained.map((u) => u.text) } : {}) };
+    const { suspects, groups, next, unexplained } = rankSuspects(board, readings, { substitutions: context.substitutions, conditions, dictionary });
+    return { suspects, groups, next, ...(unexplained ? { unexplained: unexplained.map((u) => u.text) } : {}) };
   } catch (error) {
     // A ranking is advice beside the tree's conclusion; if it cannot be computed the walk still stands.
     if (error instanceof UserInputError) return { note: `no ranking: ${error.message.split('\n')[0]}` };

@@ -46,7 +46,7 @@ export interface WalkStep {
   look?: string;
   parts?: PartView[];
   /** conclude: what was found, the parts behind the roles, the ranked suspects when the ranking is available. */
-  conclusion?: { title: string; parts: PartView[]; suspects?: Ranking['suspects']; unexplained?: string[]; rankingNote?: string };
+  conclusion?: { title: string; parts: PartView[]; suspects?: Ranking['suspects']; groups?: Ranking['groups']; unexplained?: string[]; rankingNote?: string };
   /** blocked: the step refused and the hazards not acknowledged. */
   blocked?: { node: string; missing: Array<{ hazard: Hazard; text: string }> };
 }
@@ -159,7 +159,7 @@ export function currentStep(walk: WalkSetup, snapshot: { value: unknown; context
         kind: 'conclude',
         say: node.say,
         suggestion: ranking.next,
-        conclusion: { title: node.title, parts: plan.parts.map((p) => partView(walk, p.ref, context)), suspects: ranking.suspects, unexplained: ranking.unexplained, rankingNote: ranking.note },
+        conclusion: { title: node.title, parts: plan.parts.map((p) => partView(walk, p.ref, context)), suspects: ranking.suspects, groups: ranking.groups, unexplained: ranking.unexplained, rankingNote: ranking.note },
       };
     }
   }

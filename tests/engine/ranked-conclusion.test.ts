@@ -51,7 +51,16 @@ describe('conclusion with ranked suspects', () => {
     const before = walked.current.conclusion!.suspects!;
     // A healthy board's own readings: "no fault" is among the suspects, worded as such.
     expect(before.map((s) => s.part)).toContain('none');
-    expect(formatTranscriptText(walked)).toMatch(/ \d+\. no fault — \d+ % — /);
+    const text = formatTranscriptText(walked);
+    expect(text).toMatch(/ \d+\. no fault — \d+ % (\(group \d+\) )?— /);
+    // Many faults read as a healthy board does at these test points: the group is listed whole, with
+    // its whole probability, more than the shown members' sum (the list shows five suspects).
+    const healthy = walked.current.conclusion!.groups!.find((g) => g.members.includes('none'))!;
+    expect(healthy.labels.length).toBeGreaterThan(5);
+    const shownSum = before.filter((s) => s.group === healthy.group).reduce((a, s) => a + s.probability, 0);
+    expect(healthy.probability).toBeGreaterThan(shownSum);
+    expect(text).toContain(`    group ${healthy.group}, ${(healthy.probability * 100).toFixed(0)} % together: no fault, `);
+    expect(text).toContain(` and ${healthy.labels.length - 8} more`);
 
     clearDictionaryCache();
     buildDictionary(board);

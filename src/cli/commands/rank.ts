@@ -6,7 +6,7 @@ import type { Board } from '../../schemas/board.js';
 import { HAZARDS } from '../../schemas/tree.js';
 import { DEMO_BOARD_FILE, findCondition, findTestPoint, loadBoard, withSubstitutions } from '../../board/index.js';
 import { parseReading } from '../../units/index.js';
-import { DEFAULT_METER, defaultCacheDir, dictionaryReady, faultLabel, rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
+import { DEFAULT_METER, defaultCacheDir, dictionaryReady, faultLabel, groupMembersText, rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
 import { version } from '../run.js';
 
 const HELP = `Usage: voltwalk rank [--board FILE] [--condition NAME] --reading TP=VALUE ... [--set REF=VALUE]... [--limit N] [--no-cache] [--json]
@@ -130,7 +130,7 @@ function toText(board: Board, readings: Reading[], result: RankResult): string {
   if (shared.length) {
     lines.push('');
     lines.push('Groups no test point can split (fix or inspect together):');
-    for (const g of shared) lines.push(`  group ${g.group} (${percent(g.probability)}): ${g.labels.slice(0, 8).join(', ')}${g.labels.length > 8 ? ` and ${g.labels.length - 8} more` : ''}`);
+    for (const g of shared) lines.push(`  group ${g.group} (${percent(g.probability)}): ${groupMembersText(g.labels)}`);
   }
   lines.push('');
   if (result.next) {

@@ -81,7 +81,7 @@ export function buildCaseSummary(walk: WalkSetup, snapshot: { value: unknown; co
   };
   if (current.conclusion) {
     summary.conclusion = { title: current.conclusion.title, advice: current.say[wording], parts: current.conclusion.parts.map((p) => p.ref) };
-    summary.suspects = groupSuspects(board, current.conclusion.suspects ?? []);
+    summary.suspects = groupSuspects(board, current.conclusion.suspects ?? [], current.conclusion.groups ?? []);
     summary.unexplained = current.conclusion.unexplained ?? [];
   } else {
     summary.waitingAt = { step: current.node, kind: current.kind, prompt: current.say[wording] };
@@ -90,20 +90,31 @@ export function buildCaseSummary(walk: WalkSetup, snapshot: { value: unknown; co
   return summary;
 }
 
-type Suspects = NonNullable<NonNullable<WalkStep['conclusion']>['suspects']>;
+type Conclusion = NonNullable<WalkStep['conclusion']>;
+type Suspects = NonNullable<Conclusion['suspects']>;
 
-/** Suspects the readings cannot tell apart share a group; a group is one line of the case. */
-function groupSuspects(board: Board, suspects: Suspects) {
-  const groups = new Map<number, Suspects>();
-  for (const s of suspects) groups.set(s.group, [...(groups.get(s.group) ?? []), s]);
-  return [...groups.values()]
-    .map((members) => ({
-      parts: [...new Set(members.map((m) => m.part).filter((p) => p !== NO_FAULT))],
-      faults: members.map(faultLabel),
-      probability: members.reduce((sum, m) => sum + m.probability, 0),
-      why: members[0].why,
-      where: [...new Set(members.map((m) => board.parts.find((p) => p.ref === m.part)?.where).filter((w): w is string => Boolean(w)))],
-    }))
+/**
+ * Suspects the readings cannot tell apart share a group; a group is one line of the case. The
+ * ranking's own groups give each line every member and the group's whole probability: the shown
+ * suspects are only the most likely few, and a group of a healthy board with forty faults no test
+ * point sees would otherwise be summed over the three of them that made the list.
+ */
+export function groupSuspects(board: Board, suspects: Suspects, groups: NonNullable<Conclusion['groups']>) {
+  const whole = new Map(groups.map((g) => [g.group, g]));
+  const shown = new Map<number, Suspects>();
+  for (const s of suspects) shown.set(s.group, [...(shown.get(s.group) ?? []), s]);
+  return [...shown.entries()]
+    .map(([n, members]) => {
+      const g = whole.get(n);
+      const parts = g ? g.parts.filter((p) => p !== NO_FAULT) : [...new Set(members.map((m) => m.part).filter((p) => p !== NO_FAULT))];
+      return {
+        parts,
+        faults: g ? g.labels : members.map(faultLabel),
+        probability: g ? g.probability : members.reduce((sum, m) => sum + m.probability, 0),
+        why: members[0].why,
+        where: [...new Set(parts.map((ref) => board.parts.find((p) => p.ref === ref)?.where).filter((w): w is string => Boolean(w)))],
+      };
+    })
     .sort((a, b) => b.probability - a.probability)
     .map((g, i) => ({ rank: i + 1, ...g }));
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { firstSentence, nextQuestion, POWERED_CAUTION, type CaseSummary } from '../../../src/ui/case/case-summary.js';
+import { firstSentence, groupSuspects, nextQuestion, POWERED_CAUTION, type CaseSummary } from '../../../src/ui/case/case-summary.js';
 import { DEMO_BOARD_FILE, loadBoard, testPointsFor } from '../../../src/board/index.js';
 import type { WalkStep } from '../../../src/engine/step-view.js';
 import { formatCaseSummary } from '../../../src/ui/case/format-case-summary.js';
@@ -34,6 +34,23 @@ describe('case summary for the chat', () => {
     expect(firstSentence("Power off. Check the meter LEDs' orientation: flat edge = cathode. Then go on.")).toBe("Check the meter LEDs' orientation: flat edge = cathode.");
     expect(firstSentence('Set the supply to 11.77 V and check the current. Then go on.')).toBe('Set the supply to 11.77 V and check the current.');
     expect(firstSentence('Looks fine?')).toBe('Looks fine?');
+  });
+});
+
+describe('suspect groups in the case', () => {
+  // Demo numbers: a made-up ranking on the demo board, only to check how groups are carried.
+  const suspect = (part: string, fault: string, group: number, probability: number) => ({ part, fault, group, probability, why: `why ${part}`, mode: fault, id: `${part}/${fault}` });
+  const shown = [suspect('none', 'no fault', 1, 0.1), suspect('R9', 'open', 2, 0.08), suspect('LED1', 'fitted backwards', 1, 0.02)];
+  const labels = ['no fault', 'LED1 fitted backwards', ...Array.from({ length: 10 }, (_, k) => `D${k + 1} fitted backwards`)];
+  const groups = [{ group: 1, probability: 0.55, members: labels.map((_, k) => `m${k}`), labels, parts: ['none', 'LED1', 'D1'] }];
+
+  it("takes a group's members and probability from the ranking's whole group, not from the few suspects shown", () => {
+    const board = loadBoard(DEMO_BOARD_FILE);
+    const [first, second] = groupSuspects(board, shown, groups);
+    expect(first).toMatchObject({ rank: 1, faults: labels, probability: 0.55, parts: ['LED1', 'D1'], why: 'why none' });
+    expect(first.where).toEqual(['LED1', 'D1'].map((ref) => board.parts.find((p) => p.ref === ref)!.where));
+    // A group the ranking did not send (an older result) falls back to the shown members.
+    expect(second).toMatchObject({ rank: 2, faults: ['R9 open'], probability: 0.08, parts: ['R9'] });
   });
 });
 
