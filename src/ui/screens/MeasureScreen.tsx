@@ -4,7 +4,7 @@ import { Frame } from '../components/frame/Frame.js';
 import { TextField } from '../components/text-field/TextField.js';
 import type { Check } from '../components/text-field/use-text-field.js';
 import { Tinted } from '../theme/Tinted.js';
-import { Prose } from '../components/prose/Prose.js';
+import { FlushLines, Prose } from '../components/prose/Prose.js';
 import { keepUnitsTogether } from '../components/prose/keep-units.js';
 import type { WalkStep } from '../../engine/step-view.js';
 
@@ -47,17 +47,21 @@ export function MeasureScreen({ width, title, stageMap, text, testPoint, conditi
         </Text>
         <Prose>{text}</Prose>
         {condition ? (
-          <Text>
-            <Tinted tone="quiet">Set-up: </Tinted>
-            {keepUnitsTogether(condition.label)}
-            {condition.powered ? ' (powered)' : ' (power off)'}
-          </Text>
+          <FlushLines>
+            <Text>
+              <Tinted tone="quiet">Set-up: </Tinted>
+              {keepUnitsTogether(condition.label)}
+              {condition.powered ? ' (powered)' : ' (power off)'}
+            </Text>
+          </FlushLines>
         ) : null}
         {testPoint ? (
-          <Text>
-            <Tinted tone="quiet">Probes: </Tinted>
-            {keepUnitsTogether(testPoint.probe)}
-          </Text>
+          <FlushLines>
+            <Text>
+              <Tinted tone="quiet">Probes: </Tinted>
+              {keepUnitsTogether(testPoint.probe)}
+            </Text>
+          </FlushLines>
         ) : null}
         <Text>
           <Tinted tone="quiet">Expect: </Tinted>

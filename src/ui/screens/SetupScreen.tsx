@@ -2,7 +2,7 @@ import React from 'react';
 import { Box, Text, useInput } from 'ink';
 import { Frame } from '../components/frame/Frame.js';
 import { Tinted } from '../theme/Tinted.js';
-import { Prose } from '../components/prose/Prose.js';
+import { FlushLines, Prose } from '../components/prose/Prose.js';
 import { keepUnitsTogether } from '../components/prose/keep-units.js';
 import type { WalkStep } from '../../engine/step-view.js';
 
@@ -34,10 +34,12 @@ export function SetupScreen({ width, title, stageMap, text, condition, powered, 
         <Text bold>SET UP{powered ? ' (power on)' : ' (power off)'}</Text>
         <Prose>{text}</Prose>
         {condition ? (
-          <Text>
-            <Tinted tone="quiet">{condition.label}: </Tinted>
-            {keepUnitsTogether(condition.instructions)}
-          </Text>
+          <FlushLines>
+            <Text>
+              <Tinted tone="quiet">{condition.label}: </Tinted>
+              {keepUnitsTogether(condition.instructions)}
+            </Text>
+          </FlushLines>
         ) : null}
       </Box>
       <Box marginTop={1}>

@@ -3,6 +3,7 @@ import { Box, Text, useInput } from 'ink';
 import { Frame } from '../components/frame/Frame.js';
 import { Tinted } from '../theme/Tinted.js';
 import { keepUnitsTogether } from '../components/prose/keep-units.js';
+import { FlushLines, Prose } from '../components/prose/Prose.js';
 import type { CaseSummary } from '../case/case-summary.js';
 import { partLine, type PartLineInfo } from '../parts/part-info.js';
 import { listFaults } from '../case/format-case-summary.js';
@@ -45,16 +46,16 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
       {c ? (
         <Box flexDirection="column">
           <Text bold>FOUND: {c.title}</Text>
-          <Text>{c.advice}</Text>
+          <Prose>{c.advice}</Prose>
         </Box>
       ) : null}
       <Box marginTop={1} flexDirection="column">
         {summary.unexplained.length > 0 ? (
           <Box flexDirection="column" marginBottom={1}>
             {summary.unexplained.map((u) => (
-              <Tinted key={u} tone="caution">
-                {keepUnitsTogether(`! ${u}`)}
-              </Tinted>
+              <FlushLines key={u}>
+                <Tinted tone="caution">{keepUnitsTogether(`! ${u}`)}</Tinted>
+              </FlushLines>
             ))}
           </Box>
         ) : null}
@@ -87,10 +88,13 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
       </Box>
       {summary.next ? (
         <Box marginTop={1} flexDirection="column">
-          <Text wrap="truncate-end">
-            Next probe: {summary.next.testPoint} {summary.next.label} under "{summary.next.conditionLabel}" — {summary.next.probe}
-          </Text>
-          {summary.next.caution ? <Tinted tone="caution">{keepUnitsTogether(`!! ${summary.next.caution}`)}</Tinted> : null}
+          {/* Wrapped, not cut: the probe placement is what the person needs to read whole. */}
+          <Prose>{`Next probe: ${summary.next.testPoint} ${summary.next.label} under "${summary.next.conditionLabel}" — ${summary.next.probe}`}</Prose>
+          {summary.next.caution ? (
+            <FlushLines>
+              <Tinted tone="caution">{keepUnitsTogether(`!! ${summary.next.caution}`)}</Tinted>
+            </FlushLines>
+          ) : null}
         </Box>
       ) : null}
     </Frame>

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { keepUnitsTogether } from '../../../src/ui/components/prose/keep-units.js';
+import { dropBreakSpace } from '../../../src/ui/components/prose/break-space.js';
 
 const NBSP = '\u00a0';
 
@@ -16,5 +17,15 @@ describe('a value stays on one line with its unit', () => {
     for (const text of ['pin 8 Vcc', 'wait 2 seconds', '3 mm from the edge', 'U1 pin 4 to ground', 'the 2 Vs']) {
       expect(keepUnitsTogether(text)).toBe(text);
     }
+  });
+});
+
+describe('a wrapped paragraph starts each line at its margin', () => {
+  it('drops the one space the terminal kept at a break, after any colour codes, never on the first line', () => {
+    expect(dropBreakSpace(' indented on purpose', 0)).toBe(' indented on purpose');
+    expect(dropBreakSpace(' with audio.', 1)).toBe('with audio.');
+    expect(dropBreakSpace('\u001b[33m with audio.', 2)).toBe('\u001b[33mwith audio.');
+    expect(dropBreakSpace('  two spaces', 1)).toBe(' two spaces');
+    expect(dropBreakSpace('no space', 3)).toBe('no space');
   });
 });

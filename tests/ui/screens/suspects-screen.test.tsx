@@ -69,6 +69,22 @@ describe('suspects screen', () => {
     }
   });
 
+  it('shows a long probe placement whole, wrapped, with continuation lines at the margin', () => {
+    const probe = 'black probe on the ground pad by J1 (marked GND); red probe on the unbanded end of D6, the diode right of U3';
+    const long = { ...summary, next: { ...summary.next!, probe, caution: POWERED_CAUTION.technician } };
+    const { lastFrame } = render(
+      <SuspectsScreen width={60} title="t" summary={long} part={part} onSummary={() => {}} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />,
+    );
+    const lines = lastFrame()!.split('\n');
+    const next = lines.findIndex((l) => l.startsWith('Next probe: TP6'));
+    const caution = lines.findIndex((l) => l.startsWith('!! '));
+    expect(lines.slice(next, caution).join(' ')).toBe(`Next probe: TP6 detector under "DC above threshold" — ${probe}`);
+    for (const line of lines.slice(next, lines.indexOf('', next))) {
+      expect(line.length).toBeLessThanOrEqual(60);
+      expect(line.startsWith(' ')).toBe(false);
+    }
+  });
+
   it('says first, and in words, when a reading fits no modelled fault', () => {
     const odd = { ...summary, unexplained: ['TP1 = 11.2 V fits no single modelled fault.'] };
     const { lastFrame } = render(
