@@ -4,7 +4,7 @@ import { Frame } from '../components/frame/Frame.js';
 import { TextField } from '../components/text-field/TextField.js';
 import type { Check } from '../components/text-field/use-text-field.js';
 import { Tinted } from '../theme/Tinted.js';
-import { Prose } from '../components/prose/Prose.js';
+import { Bullet, Prose } from '../components/prose/Prose.js';
 
 interface Props {
   width: number;
@@ -36,7 +36,7 @@ export function CautionScreen({ width, title, stageMap, text, hazards, isActive 
         </Tinted>
         <Prose>{text}</Prose>
         {hazards.map((h) => (
-          <Prose key={h}>{`- ${h}`}</Prose>
+          <Bullet key={h}>{h}</Bullet>
         ))}
       </Box>
       <Box marginTop={1}>

@@ -1,4 +1,4 @@
-import React from 'react';
+import React, { useState } from 'react';
 import { Box, Text, useInput } from 'ink';
 import { Frame } from '../components/frame/Frame.js';
 import { Tinted } from '../theme/Tinted.js';
@@ -27,8 +27,11 @@ const SHOWN_GROUPS = 3;
 
 /** The end of a walk: what was found, the ranked suspects (groups that readings cannot split shown as one), the next probe. */
 export function SuspectsScreen({ width, title, summary, part, rankingNote, isActive = true, onSummary, onBack, onNewWalk, onQuit }: Props) {
+  // Reasons are cut to one line each so three suspects fit a screen; r shows them whole, wrapped.
+  const [whole, setWhole] = useState(false);
   useInput(
     (input, key) => {
+      if (input === 'r') setWhole((w) => !w);
       if (input === 's') onSummary();
       if (input === 'n') onNewWalk();
       if (input === 'q') onQuit();
@@ -41,7 +44,7 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
     <Frame
       title={title}
       width={width}
-      hints={[{ key: 's', does: 'case summary for chat' }, { key: 'Esc', does: 'back' }, { key: 'n', does: 'new walk' }, { key: 'q', does: 'quit' }]}
+      hints={[{ key: 's', does: 'summary for chat' }, ...(summary.suspects.length ? [{ key: 'r', does: whole ? 'short reasons' : 'full reasons' }] : []), { key: 'Esc', does: 'back' }, { key: 'n', does: 'new walk' }, { key: 'q', does: 'quit' }]}
     >
       {c ? (
         <Box flexDirection="column">
@@ -64,14 +67,20 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
             <Text>Suspects, most likely first (from your readings):</Text>
             {summary.suspects.slice(0, SHOWN_GROUPS).map((g) => (
               <Box key={g.rank} flexDirection="column">
-                <Text wrap="truncate-end">
+                <Text wrap={whole ? 'wrap' : 'truncate-end'}>
                   {String(g.rank).padStart(2)}. {`${Math.round(g.probability * 100)} %`.padStart(5)}{' '}
                   <Tinted tone="bad" bold>
-                    {listFaults(g.faults)}
+                    {listFaults(g.faults, whole ? 8 : 3)}
                   </Tinted>
                   {g.faults.length > 1 ? ' (cannot tell apart yet)' : ''}
                 </Text>
-                <Text wrap="truncate-end">{'          '}{g.why}</Text>
+                {whole ? (
+                  <Box marginLeft={10}>
+                    <Prose>{g.why}</Prose>
+                  </Box>
+                ) : (
+                  <Text wrap="truncate-end">{'          '}{g.why}</Text>
+                )}
                 {g.parts.slice(0, 2).map((ref) => (
                   <Tinted key={ref} tone="quiet" wrap="truncate-end">
                     {'          '}

@@ -44,7 +44,8 @@ describe('caution screen', () => {
       <CautionScreen width={10} title="t" text="Power next." hazards={['the ±12 V rails']} onAcknowledge={() => {}} onBack={() => {}} />,
     );
     const lines = lastFrame()!.split('\n');
-    expect(lines).toContain('±12\u00a0V');
+    // The item's wrapped lines hang under its text, two columns in, past the dash.
+    expect(lines).toContain('  ±12\u00a0V');
     expect(lines.some((l) => l.trimEnd().endsWith('±12'))).toBe(false);
   });
 

@@ -50,7 +50,7 @@ describe('suspects screen', () => {
         '',
         'Next probe: TP6 detector under "DC above threshold" — red on TP6',
         '',
-        's case summary for chat  ·  Esc back  ·  n new walk  ·  q quit',
+        's summary for chat  ·  r full reasons  ·  Esc back  ·  n new walk  ·  q quit',
       ].join('\n'),
     );
   });
@@ -83,6 +83,24 @@ describe('suspects screen', () => {
       expect(line.length).toBeLessThanOrEqual(60);
       expect(line.startsWith(' ')).toBe(false);
     }
+  });
+
+  it('cuts each reason to a line, and shows them whole, wrapped under the suspect, on r', async () => {
+    const why = 'TP5 would read 0 V with R20 open (healthy 1.10 V); you read 0 V; TP6 would read 11.3 V with R20 open (healthy 5.90 V); you read 11.2 V';
+    const long = { ...summary, suspects: [{ ...summary.suspects[0], why }] };
+    const { lastFrame, stdin } = render(
+      <SuspectsScreen width={60} title="t" summary={long} part={part} onSummary={() => {}} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />,
+    );
+    const cut = lastFrame()!.split('\n');
+    expect(cut.find((l) => l.startsWith('          TP5'))).toMatch(/…$/);
+    await press(stdin, 'r');
+    const lines = lastFrame()!.split('\n');
+    const first = lines.findIndex((l) => l.startsWith('          TP5'));
+    const block = lines.slice(first, lines.findIndex((l) => l.startsWith('          R20 ·')));
+    expect(block.length).toBeGreaterThan(1);
+    expect(block.map((l) => l.slice(10)).join(' ').replace(/\u00a0/g, ' ')).toBe(why);
+    for (const line of block) expect(line.length).toBeLessThanOrEqual(60);
+    expect(lastFrame()).toContain('r short reasons');
   });
 
   it('says first, and in words, when a reading fits no modelled fault', () => {

@@ -1,5 +1,5 @@
 import React from 'react';
-import { Text, Transform } from 'ink';
+import { Box, Text, Transform } from 'ink';
 import { keepUnitsTogether } from './keep-units.js';
 import { dropBreakSpace } from './break-space.js';
 
@@ -15,4 +15,16 @@ export function Prose({ children }: { children: string }) {
 /** Any wrapped text block whose continuation lines should start at its margin (see dropBreakSpace). */
 export function FlushLines({ children }: { children: React.ReactNode }) {
   return <Transform transform={dropBreakSpace}>{children}</Transform>;
+}
+
+/** A list item: its wrapped lines hang under the text, not under the dash. */
+export function Bullet({ children }: { children: string }) {
+  return (
+    <Box>
+      <Text>- </Text>
+      <Box flexShrink={1}>
+        <Prose>{children}</Prose>
+      </Box>
+    </Box>
+  );
 }
