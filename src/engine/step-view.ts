@@ -55,6 +55,15 @@ export interface WalkStep {
 export const OVERLOAD = /^\s*(ol|o\.l\.?|overload|open|inf(inity)?|∞)\s*$/i;
 
 /** A value as a person reads it; an infinite resistance is the meter's overload display. */
+/**
+ * The two answers to every inspection. A customer is shown words, not a picture: the question
+ * describes what to look for, so the answer says whether the board matches that description.
+ */
+export const INSPECT_CHOICES = [
+  { id: 'ok', label: 'looks right', customerLabel: 'it matches the description' },
+  { id: 'fault', label: 'found a problem', customerLabel: 'something looks different' },
+] as const;
+
 export function showValue(value: number, unit: string, figures?: number): string {
   return Number.isFinite(value) ? formatReading(value, unit, figures) : 'overload (open)';
 }
@@ -147,10 +156,7 @@ export function currentStep(walk: WalkSetup, snapshot: { value: unknown; context
         canSkip: true,
         look: node.look,
         parts: plan.parts.map((p) => partView(walk, p.ref, context)),
-        choices: [
-          { id: 'ok', label: 'looks right', customerLabel: 'it looks like the picture' },
-          { id: 'fault', label: 'found a problem', customerLabel: 'something looks different' },
-        ],
+        choices: [...INSPECT_CHOICES],
       };
     case 'conclude': {
       const ranking = rankFor(walk, context);

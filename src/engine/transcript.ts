@@ -1,6 +1,6 @@
 import type { Problem } from '../errors.js';
 import type { Wording } from '../schemas/tree.js';
-import { describeBand, currentStep, type WalkStep } from './step-view.js';
+import { describeBand, currentStep, INSPECT_CHOICES, type WalkStep } from './step-view.js';
 import type { ExpectedBand } from './outcome.js';
 import type { WalkContext } from './walk-context.js';
 import type { WalkSetup } from './walk-machine.js';
@@ -33,7 +33,7 @@ export interface Transcript {
 function answerLabels(walk: WalkSetup, node: string, id: string): { label: string; customerLabel?: string } {
   const n = walk.tree.nodes[node];
   if (n?.kind === 'observe') return { label: n.choices[id]?.label ?? id, customerLabel: n.choices[id]?.customerLabel };
-  if (n?.kind === 'inspect') return id === 'ok' ? { label: 'looks right', customerLabel: 'it looks like the picture' } : { label: 'found a problem', customerLabel: 'something looks different' };
+  if (n?.kind === 'inspect') return INSPECT_CHOICES.find((c) => c.id === id) ?? INSPECT_CHOICES[1];
   return { label: id === 'done' ? 'acknowledged' : id };
 }
 

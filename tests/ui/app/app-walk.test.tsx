@@ -90,7 +90,7 @@ describe('the app, start to suspects', () => {
     const tree = findTree('first-power-up');
     const first = tree.nodes[tree.start];
     expect(r.lastFrame()).toContain(first.say.customer.slice(0, 60));
-    expect(r.lastFrame()).toContain('> it looks like the picture');
+    expect(r.lastFrame()).toContain('> it matches the description');
     r.unmount();
   }, 600_000);
 
