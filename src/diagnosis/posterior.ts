@@ -1,5 +1,5 @@
 import { UserInputError } from '../errors.js';
-import { domainWidth, observableKey, rowView, spreadTable, toDomain, type FaultDictionary, type Reading } from './dictionary-model.js';
+import { domainWidth, NO_FAULT, observableKey, rowView, spreadTable, toDomain, type FaultDictionary, type Reading } from './dictionary-model.js';
 import { DEFAULT_METER, type MeterSpec } from './meter.js';
 import { likelihoodSigma } from './likelihood-spread.js';
 
@@ -10,6 +10,12 @@ export interface PosteriorOptions {
    * range), so one reading the simulation did not foresee lowers a hypothesis without erasing it.
    */
   outlier?: number;
+  /**
+   * The board is known to be faulty (a tree has concluded a fault from what the person saw): the
+   * healthy board is no candidate, and its share goes to the faults in proportion. Readings cannot
+   * say this by themselves: many faults read exactly as a healthy board does at every test point.
+   */
+  faultPresent?: boolean;
 }
 
 /**
@@ -100,7 +106,7 @@ export interface RowPosterior {
 export function rowPosterior(dict: FaultDictionary, readings: Reading[], options: PosteriorOptions = {}): RowPosterior {
   const where = locateReadings(dict, readings);
   const { rows, parent } = rowView(dict);
-  const logs = rows.hypotheses.map((h) => Math.log(Math.max(h.prior, 0)));
+  const logs = rows.hypotheses.map((h) => (options.faultPresent && h.id === NO_FAULT ? -Infinity : Math.log(Math.max(h.prior, 0))));
   // Reading by reading: the reading's place in the comparison domain is worked out once.
   readings.forEach((r, k) => {
     for (let i = 0; i < logs.length; i++) logs[i] += logLikelihood(rows, i, where[k], r.value, options);

@@ -26,6 +26,8 @@ export interface RankOptions {
   noFaultPrior?: number;
   /** Keep the dictionary on disk between runs (see buildDictionary). */
   diskCache?: { dir: string; version: string };
+  /** The board is known to be faulty: "no fault" is left out (see PosteriorOptions.faultPresent). */
+  faultPresent?: boolean;
 }
 
 /** Hypotheses below this share of the leader are out of the running: they are not grouped or probed for. */
@@ -46,7 +48,7 @@ export function rankSuspects(board: Board, readings: Reading[], options: RankOpt
       diskCache: options.diskCache,
     });
   const where = locateReadings(dict, readings);
-  const both = rowPosterior(dict, readings, { meter });
+  const both = rowPosterior(dict, readings, { meter, faultPresent: options.faultPresent });
   const p = both.hypotheses;
   const order = p.map((_, i) => i).sort((a, b) => p[b] - p[a]);
   const live = order.filter((i) => p[i] >= p[order[0]] * LIVE).slice(0, MAX_LIVE);

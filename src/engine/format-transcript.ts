@@ -1,6 +1,7 @@
 import type { Transcript, TranscriptEntry } from './transcript.js';
 import { showValue, type PartView, type WalkStep } from './step-view.js';
 import { faultLabel, groupMembersText } from '../diagnosis/index.js';
+import { FAULT_PRESENT_NOTE } from './fault-present-note.js';
 
 const percent = (p: number) => `${(p * 100).toFixed(0)} %`;
 
@@ -37,7 +38,7 @@ function currentLines(step: WalkStep, wording: Wording): string[] {
     if (c.parts.length) lines.push('  Likely parts:', ...c.parts.map((p) => `    ${partLine(p)}`));
     for (const u of c.unexplained ?? []) lines.push(`  ! ${u}`);
     if (c.suspects?.length) {
-      lines.push('  Ranked suspects (from the readings):');
+      lines.push(`  Ranked suspects (from the readings${c.faultPresent ? `; ${FAULT_PRESENT_NOTE}` : ''}):`);
       const shown = c.suspects.slice(0, 5);
       const shared = (c.groups ?? []).filter((g) => g.labels.length > 1 && shown.some((s) => s.group === g.group));
       const inShared = new Set(shared.map((g) => g.group));

@@ -14,6 +14,8 @@ export interface Ranking {
   unexplained?: string[];
   /** Why there is no ranking, when there is none. */
   note?: string;
+  /** "No fault" was left out because the walk concluded a fault. */
+  faultPresent?: boolean;
 }
 
 /** Every reading of the walk so far, in the ranking's terms (board test point and condition ids). */
@@ -24,8 +26,11 @@ export function walkReadings(context: WalkContext): Array<{ testPoint: string; c
   ];
 }
 
-/** The ranked suspects for the readings so far, on the board as the person has it (substitutions applied). */
-export function rankFor(walk: WalkSetup, context: WalkContext): Ranking {
+/**
+ * The ranked suspects for the readings so far, on the board as the person has it (substitutions
+ * applied). `faultPresent` when the walk has concluded a fault: "no fault" is then no candidate.
+ */
+export function rankFor(walk: WalkSetup, context: WalkContext, faultPresent = false): Ranking {
   if (walk.options.ranking === false) return { note: 'ranking not asked for' };
   const readings = walkReadings(context);
   if (!readings.length) return { note: 'no readings yet, so no ranking of suspects' };
@@ -38,8 +43,8 @@ export function rankFor(walk: WalkSetup, context: WalkContext): Ranking {
     // `voltwalk rank` keeps it on disk), holds these conditions' predictions too: cut them out rather
     // than solve them again here.
     const dictionary = dictionaryReady(board, whole) ? restrictDictionary(buildDictionary(board, whole), conditions) : undefined;
-    const { suspects, groups, next, unexplained } = rankSuspects(board, readings, { substitutions: context.substitutions, conditions, dictionary });
-    return { suspects, groups, next, ...(unexplained ? { unexplained: unexplained.map((u) => u.text) } : {}) };
+    const { suspects, groups, next, unexplained } = rankSuspects(board, readings, { substitutions: context.substitutions, conditions, dictionary, faultPresent });
+    return { suspects, groups, next, faultPresent, ...(unexplained ? { unexplained: unexplained.map((u) => u.text) } : {}) };
   } catch (error) {
     // A ranking is advice beside the tree's conclusion; if it cannot be computed the walk still stands.
     if (error instanceof UserInputError) return { note: `no ranking: ${error.message.split('\n')[0]}` };

@@ -46,7 +46,7 @@ export interface WalkStep {
   look?: string;
   parts?: PartView[];
   /** conclude: what was found, the parts behind the roles, the ranked suspects when the ranking is available. */
-  conclusion?: { title: string; parts: PartView[]; suspects?: Ranking['suspects']; groups?: Ranking['groups']; unexplained?: string[]; rankingNote?: string };
+  conclusion?: { title: string; parts: PartView[]; suspects?: Ranking['suspects']; groups?: Ranking['groups']; faultPresent?: boolean; unexplained?: string[]; rankingNote?: string };
   /** blocked: the step refused and the hazards not acknowledged. */
   blocked?: { node: string; missing: Array<{ hazard: Hazard; text: string }> };
 }
@@ -159,13 +159,15 @@ export function currentStep(walk: WalkSetup, snapshot: { value: unknown; context
         choices: [...INSPECT_CHOICES],
       };
     case 'conclude': {
-      const ranking = rankFor(walk, context);
+      // A conclusion that names parts is a fault the person has seen (the meter stays dark), whatever
+      // the readings say: many faults read as a healthy board does at every test point.
+      const ranking = rankFor(walk, context, node.parts.length > 0);
       return {
         ...base,
         kind: 'conclude',
         say: node.say,
         suggestion: ranking.next,
-        conclusion: { title: node.title, parts: plan.parts.map((p) => partView(walk, p.ref, context)), suspects: ranking.suspects, groups: ranking.groups, unexplained: ranking.unexplained, rankingNote: ranking.note },
+        conclusion: { title: node.title, parts: plan.parts.map((p) => partView(walk, p.ref, context)), suspects: ranking.suspects, groups: ranking.groups, faultPresent: ranking.faultPresent, unexplained: ranking.unexplained, rankingNote: ranking.note },
       };
     }
   }

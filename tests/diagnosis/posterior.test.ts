@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { entropyBits, normaliseLogs, posterior } from '../../src/diagnosis/posterior.js';
+import { entropyBits, normaliseLogs, posterior, rowPosterior } from '../../src/diagnosis/posterior.js';
 import { UserInputError } from '../../src/errors.js';
 import { hyp, obs, smallDictionary } from './fixtures.js';
 
@@ -25,6 +25,19 @@ describe('posterior over a hand-made dictionary', () => {
     const p = posterior(dict, []);
     expect(p[1]).toBeCloseTo(3 / 7, 12);
     expect(p[0]).toBeCloseTo(1 / 7, 12);
+  });
+
+  it('with a fault known present, "no fault" gets nothing and the faults keep their ratios', () => {
+    const dict = smallDictionary();
+    const readings = [{ testPoint: 'TP1', condition: 'quiescent', value: dict.hypotheses[0].predictions[0] }];
+    const open = rowPosterior(dict, readings).hypotheses;
+    const known = rowPosterior(dict, readings, { faultPresent: true }).hypotheses;
+    expect(dict.hypotheses[0].id).toBe('none');
+    expect(known[0]).toBe(0);
+    expect(known.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12);
+    // Every fault's share is scaled by the same factor, 1 / (1 − P(no fault)).
+    for (let i = 1; i < dict.hypotheses.length; i++) expect(known[i]).toBeCloseTo(open[i] / (1 - open[0]), 12);
+    expect(open[0]).toBeGreaterThan(0.1);
   });
 
   it('a reading exactly at a fault prediction ranks that fault first', () => {

@@ -21,7 +21,11 @@ describe('conclusion with ranked suspects', () => {
     expect(c.parts.map((p) => p.ref)).toContain('D1');
     expect(c.suspects?.length).toBeGreaterThan(0);
     expect(c.suspects!.map((s) => s.part)).toContain('D1');
-    expect(formatTranscriptText(t)).toContain('Ranked suspects (from the readings):');
+    // The walk concluded a fault (the conclusion names parts): "no fault" is no candidate, and the heading says so.
+    expect(c.faultPresent).toBe(true);
+    expect(c.suspects!.map((s) => s.part)).not.toContain('none');
+    expect(c.groups!.flatMap((g) => g.members)).not.toContain('none');
+    expect(formatTranscriptText(t)).toContain('Ranked suspects (from the readings; a fault was found, so "no fault" is left out):');
     // Every reading is the injected fault's own: some candidate foresees each one.
     expect(c.unexplained).toBeUndefined();
 
@@ -35,7 +39,7 @@ describe('conclusion with ranked suspects', () => {
     expect(note).toHaveLength(1);
     expect(note[0]).toMatch(/^TP\d+ = 30 V fits no single modelled fault/);
     const text = formatTranscriptText(odd);
-    expect(text.indexOf(`! ${note[0]}`)).toBeLessThan(text.indexOf('Ranked suspects (from the readings):'));
+    expect(text.indexOf(`! ${note[0]}`)).toBeLessThan(text.indexOf('Ranked suspects (from the readings'));
   }, 300_000);
 
   it("takes the walk's conditions out of the whole board's dictionary when that is built, instead of building another", () => {

@@ -33,7 +33,8 @@ export interface CaseSummary {
   }>;
   answers: Array<{ step: string; question: string; answer: string }>;
   skipped: Array<{ step: string; reason: string }>;
-  conclusion?: { title: string; advice: string; parts: string[] };
+  /** `faultPresent`: the walk concluded a fault, so the suspects leave "no fault" out. */
+  conclusion?: { title: string; advice: string; parts: string[]; faultPresent?: boolean };
   suspects: Array<{ rank: number; parts: string[]; faults: string[]; probability: number; why: string; where: string[] }>;
   /** Readings no single modelled fault explains, as sentences (the suspects are then only the nearest fits). */
   unexplained: string[];
@@ -80,7 +81,12 @@ export function buildCaseSummary(walk: WalkSetup, snapshot: { value: unknown; co
     unexplained: [],
   };
   if (current.conclusion) {
-    summary.conclusion = { title: current.conclusion.title, advice: current.say[wording], parts: current.conclusion.parts.map((p) => p.ref) };
+    summary.conclusion = {
+      title: current.conclusion.title,
+      advice: current.say[wording],
+      parts: current.conclusion.parts.map((p) => p.ref),
+      ...(current.conclusion.faultPresent ? { faultPresent: true } : {}),
+    };
     summary.suspects = groupSuspects(board, current.conclusion.suspects ?? [], current.conclusion.groups ?? []);
     summary.unexplained = current.conclusion.unexplained ?? [];
   } else {

@@ -1,5 +1,6 @@
 import { bandFigures, formatBand, formatReading } from '../../units/index.js';
 import type { CaseSummary } from './case-summary.js';
+import { FAULT_PRESENT_NOTE } from '../../engine/fault-present-note.js';
 
 /**
  * The case as text short enough to paste into a support chat: at most about 25 lines, however
@@ -40,7 +41,7 @@ export function formatCaseSummary(c: CaseSummary, style: SummaryStyle = 'md'): s
   if (c.conclusion) lines.push(`${b('Found')}: ${c.conclusion.title}`);
   for (const u of c.unexplained) lines.push(`Note: ${clip(u, 240)}`);
   if (c.suspects.length > 0) {
-    lines.push('Suspects (most likely first):');
+    lines.push(`Suspects (most likely first${c.conclusion?.faultPresent ? `; ${FAULT_PRESENT_NOTE}` : ''}):`);
     for (const s of c.suspects.slice(0, MAX_SUSPECTS)) {
       const who = s.faults.length > 1 ? `${listFaults(s.faults)} (cannot tell apart yet)` : s.faults.join(', ');
       lines.push(`${s.rank}. ${who}, ${percent(s.probability)} — ${clip(s.why, 90)}${s.where.length ? ` (${clip(s.where.join('; '), 40)})` : ''}`);

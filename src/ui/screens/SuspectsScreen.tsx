@@ -7,6 +7,7 @@ import { FlushLines, Prose } from '../components/prose/Prose.js';
 import type { CaseSummary } from '../case/case-summary.js';
 import { partLine, type PartLineInfo } from '../parts/part-info.js';
 import { listFaults } from '../case/format-case-summary.js';
+import { FAULT_PRESENT_NOTE } from '../../engine/fault-present-note.js';
 
 interface Props {
   width: number;
@@ -24,6 +25,7 @@ interface Props {
 }
 
 const SHOWN_GROUPS = 3;
+const SHOWN_PARTS = 3;
 
 /** The end of a walk: what was found, the ranked suspects (groups that readings cannot split shown as one), the next probe. */
 export function SuspectsScreen({ width, title, summary, part, rankingNote, isActive = true, onSummary, onBack, onNewWalk, onQuit }: Props) {
@@ -50,6 +52,15 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
         <Box flexDirection="column">
           <Text bold>FOUND: {c.title}</Text>
           <Prose>{c.advice}</Prose>
+          {/* The tree's own likely parts, with where they sit: what the person checks first. */}
+          {c.parts.length > 0 ? <Text>Check first:</Text> : null}
+          {c.parts.slice(0, SHOWN_PARTS).map((ref) => (
+            <Tinted key={ref} tone="quiet" wrap="truncate-end">
+              {'  '}
+              {partLine(part(ref))}
+            </Tinted>
+          ))}
+          {c.parts.length > SHOWN_PARTS ? <Text>{`  … and ${c.parts.slice(SHOWN_PARTS).join(', ')}`}</Text> : null}
         </Box>
       ) : null}
       <Box marginTop={1} flexDirection="column">
@@ -64,7 +75,7 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
         ) : null}
         {summary.suspects.length > 0 ? (
           <>
-            <Text>Suspects, most likely first (from your readings):</Text>
+            <Prose>{`Suspects, most likely first (from your readings${c?.faultPresent ? `; ${FAULT_PRESENT_NOTE}` : ''}):`}</Prose>
             {summary.suspects.slice(0, SHOWN_GROUPS).map((g) => (
               <Box key={g.rank} flexDirection="column">
                 <Text wrap={whole ? 'wrap' : 'truncate-end'}>

@@ -38,6 +38,8 @@ describe('suspects screen', () => {
         '',
         'FOUND: The control voltage never moves',
         'Check the threshold network first.',
+        'Check first:',
+        '  R20 · 10 kΩ ±1 % · bands brown-black-black-red-brown · where R20 is',
         '',
         'Suspects, most likely first (from your readings):',
         ' 1.  62 % R20 open',
