@@ -57,7 +57,8 @@ export function ReadingResultScreen({ width, title, stageMap, result, format, is
       {stageMap}
       <Box marginTop={stageMap ? 1 : 0} flexDirection="column">
         <Text bold>
-          {result.testPoint} · {result.label}: {format(result.value, result.band.unit)}{' '}
+          {/* Four figures, as the meter showed it and as the walk records it: 11.77 V, not 11.8 V. */}
+          {result.testPoint} · {result.label}: {format(result.value, result.band.unit, 4)}{' '}
           <Tinted tone={verdict === 'in' ? 'good' : 'bad'} bold>
             {VERDICT_WORDS[verdict]}
           </Tinted>

@@ -17,7 +17,7 @@ const check = (text: string): Check<number> => {
     return { ok: false, hint: hintOf(error) };
   }
 };
-const format = (v: number, unit: string) => formatValue(v, unit);
+const format = (v: number, unit: string, figures?: number) => formatValue(v, unit, figures);
 const raw = { nominal: 4.8, min: 4.65, max: 4.95, unit: 'V' as const };
 const band = { ...raw, text: describeBand(raw) };
 
@@ -127,6 +127,13 @@ describe('reading result', () => {
     expect(lines[6][lines[7].indexOf('^')]).toBe(':');
     expect(lines[7]).toContain('4.62 V in band (meter accuracy)');
     expect(lines[8]).toMatch(/^: = meter accuracy \(±43\.3 mV below, ±44\.[78] mV above\)$/);
+  });
+
+  it('heads the result with the reading to four figures, as the meter showed it', () => {
+    const { lastFrame } = render(
+      <ReadingResultScreen width={60} title="t" result={{ testPoint: 'TP1', label: 'rail', value: 11.77, band: { ...band, min: 11.74, max: 11.8, nominal: 11.77 }, outcome: 'in-band' }} format={format} onContinue={() => {}} />,
+    );
+    expect(lastFrame()!.split('\n')[2]).toBe('TP1 · rail: 11.77 V in band');
   });
 
   it('moves on with Enter', async () => {
