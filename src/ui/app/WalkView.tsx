@@ -11,6 +11,7 @@ import { MeasureScreen } from '../screens/MeasureScreen.js';
 import { ChoiceScreen } from '../screens/ChoiceScreen.js';
 import { ReadingResultScreen, type ReadingResult } from '../screens/ReadingResultScreen.js';
 import { SuspectsScreen } from '../screens/SuspectsScreen.js';
+import { useHeight } from '../components/frame/use-height.js';
 import { Frame } from '../components/frame/Frame.js';
 import { useInput } from 'ink';
 import { hintOf } from '../components/text-field/hint-of.js';
@@ -32,6 +33,7 @@ interface Props {
 /** The walk's screens, one per kind of step, chosen from where the engine says the walk stands. */
 export function WalkView({ services, run, width, wording, ranking, send, onSummary, onNewWalk, onQuit }: Props) {
   const [result, setResult] = useState<ReadingResult | undefined>();
+  const rows = useHeight();
   const waiting = !result && ranking === 'working' && services.stepNeedsRanking(run);
   if (waiting) return <RankingWait width={width} title={`voltwalk · ${run.board.name} · ${run.tree.symptom}`} onBack={() => send({ type: 'user.back' })} />;
   const step = services.stepOf(run);
@@ -134,6 +136,7 @@ export function WalkView({ services, run, width, wording, ranking, send, onSumma
       return (
         <SuspectsScreen
           width={width}
+          rows={rows}
           title={title}
           summary={summary}
           part={(ref) => services.engine.describePart(board, ref)}

@@ -36,5 +36,7 @@ export async function startUi(options: UiOptions): Promise<number> {
     { exitOnCtrlC: true },
   );
   await instance.waitUntilExit();
+  // The last frame ends where its hint line ends; the shell's prompt belongs on a line of its own.
+  process.stdout.write('\n');
   return code;
 }

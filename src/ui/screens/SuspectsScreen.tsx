@@ -11,6 +11,8 @@ import { FAULT_PRESENT_NOTE } from '../../engine/fault-present-note.js';
 
 interface Props {
   width: number;
+  /** The terminal's height: below COMPACT_BELOW_ROWS the screen is drawn compact. */
+  rows?: number;
   title: string;
   summary: CaseSummary;
   /** Location, value and colour bands of a part, by designator. */
@@ -26,9 +28,14 @@ interface Props {
 
 const SHOWN_GROUPS = 3;
 const SHOWN_PARTS = 3;
+/**
+ * Below this many rows the screen is drawn compact (two suspects, one place each, the tree's parts
+ * on one line), so that on an 80×24 terminal the finding stays on screen above the suspects.
+ */
+const COMPACT_BELOW_ROWS = 32;
 
 /** The end of a walk: what was found, the ranked suspects (groups that readings cannot split shown as one), the next probe. */
-export function SuspectsScreen({ width, title, summary, part, rankingNote, isActive = true, onSummary, onBack, onNewWalk, onQuit }: Props) {
+export function SuspectsScreen({ width, rows = 40, title, summary, part, rankingNote, isActive = true, onSummary, onBack, onNewWalk, onQuit }: Props) {
   // Reasons are cut to one line each so three suspects fit a screen; r shows them whole, wrapped.
   const [whole, setWhole] = useState(false);
   useInput(
@@ -42,6 +49,9 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
     { isActive },
   );
   const c = summary.conclusion;
+  const compact = rows < COMPACT_BELOW_ROWS;
+  const groupsShown = compact ? 2 : SHOWN_GROUPS;
+  const placesShown = compact ? 1 : 2;
   return (
     <Frame
       title={title}
@@ -53,14 +63,15 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
           <Text bold>FOUND: {c.title}</Text>
           <Prose>{c.advice}</Prose>
           {/* The tree's own likely parts, with where they sit: what the person checks first. */}
-          {c.parts.length > 0 ? <Text>Check first:</Text> : null}
-          {c.parts.slice(0, SHOWN_PARTS).map((ref) => (
+          {c.parts.length > 0 && compact ? <Text wrap="truncate-end">Check first: {c.parts.join(', ')}</Text> : null}
+          {c.parts.length > 0 && !compact ? <Text>Check first:</Text> : null}
+          {(compact ? [] : c.parts.slice(0, SHOWN_PARTS)).map((ref) => (
             <Tinted key={ref} tone="quiet" wrap="truncate-end">
               {'  '}
               {partLine(part(ref))}
             </Tinted>
           ))}
-          {c.parts.length > SHOWN_PARTS ? <Text>{`  … and ${c.parts.slice(SHOWN_PARTS).join(', ')}`}</Text> : null}
+          {!compact && c.parts.length > SHOWN_PARTS ? <Text>{`  … and ${c.parts.slice(SHOWN_PARTS).join(', ')}`}</Text> : null}
         </Box>
       ) : null}
       <Box marginTop={1} flexDirection="column">
@@ -76,7 +87,7 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
         {summary.suspects.length > 0 ? (
           <>
             <Prose>{`Suspects, most likely first (from your readings${c?.faultPresent ? `; ${FAULT_PRESENT_NOTE}` : ''}):`}</Prose>
-            {summary.suspects.slice(0, SHOWN_GROUPS).map((g) => (
+            {summary.suspects.slice(0, groupsShown).map((g) => (
               <Box key={g.rank} flexDirection="column">
                 <Text wrap={whole ? 'wrap' : 'truncate-end'}>
                   {String(g.rank).padStart(2)}. {`${Math.round(g.probability * 100)} %`.padStart(5)}{' '}
@@ -92,7 +103,7 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
                 ) : (
                   <Text wrap="truncate-end">{'          '}{g.why}</Text>
                 )}
-                {g.parts.slice(0, 2).map((ref) => (
+                {g.parts.slice(0, placesShown).map((ref) => (
                   <Tinted key={ref} tone="quiet" wrap="truncate-end">
                     {'          '}
                     {partLine(part(ref))}
@@ -100,7 +111,7 @@ export function SuspectsScreen({ width, title, summary, part, rankingNote, isAct
                 ))}
               </Box>
             ))}
-            {summary.suspects.length > SHOWN_GROUPS ? <Text>    … {summary.suspects.length - SHOWN_GROUPS} less likely (in the case summary)</Text> : null}
+            {summary.suspects.length > groupsShown ? <Text>    … {summary.suspects.length - groupsShown} less likely (in the case summary)</Text> : null}
           </>
         ) : (
           <Text>{rankingNote ?? 'No ranking of suspects.'}</Text>

@@ -105,6 +105,20 @@ describe('suspects screen', () => {
     expect(lastFrame()).toContain('r short reasons');
   });
 
+  it('on a short terminal shows two suspects with one place each and the parts to check on one line', () => {
+    const three = { ...summary, suspects: [...summary.suspects, { rank: 3, parts: ['R9'], faults: ['R9 open'], probability: 0.05, why: 'w', where: [] }] };
+    const { lastFrame } = render(
+      <SuspectsScreen width={80} rows={24} title="t" summary={three} part={part} onSummary={() => {}} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />,
+    );
+    const lines = lastFrame()!.split('\n');
+    expect(lines).toContain('Check first: R20');
+    expect(lines.filter((l) => /^ \d\. /.test(l))).toHaveLength(2);
+    expect(lines).toContain('          C7 · where C7 is');
+    expect(lines).not.toContain('          R21 · where R21 is');
+    expect(lines).toContain('    … 1 less likely (in the case summary)');
+    expect(lines.length).toBeLessThanOrEqual(24);
+  });
+
   it('says first, and in words, when a reading fits no modelled fault', () => {
     const odd = { ...summary, unexplained: ['TP1 = 11.2 V fits no single modelled fault.'] };
     const { lastFrame } = render(
