@@ -1,5 +1,5 @@
-import { roleCondition, roleParts, roleTestPoint } from '../board/index.js';
-import { expectBands, type Band } from '../circuit/analysis/index.js';
+import { roleCondition, roleParts, roleTestPoint, withSubstitutions } from '../board/index.js';
+import { expectBands, hissBand, type Band } from '../circuit/analysis/index.js';
 import { ConvergenceError } from '../circuit/index.js';
 import { UserInputError } from '../errors.js';
 import type { Board, Condition, Part, TestPoint } from '../schemas/board.js';
@@ -18,8 +18,11 @@ export interface BoardView {
   testPoint(role: TestPointRole): TestPoint | undefined;
   condition(role: ConditionRole): Condition | undefined;
   parts(role: PartRole): Part[];
-  /** Undefined when the board has no band there, or the circuit cannot be solved with these part values. */
-  band(testPoint: string, condition: string, substitutions: Substitutions): ExpectedBand | undefined;
+  /**
+   * Undefined when the board has no band there, or the circuit cannot be solved with these part
+   * values. `quantity` "noise": the hiss band at a voltage test point (hiss-band.ts).
+   */
+  band(testPoint: string, condition: string, substitutions: Substitutions, quantity?: 'dc' | 'noise'): ExpectedBand | undefined;
   railVolts: number[];
 }
 
@@ -47,7 +50,7 @@ export function createBoardView(board: Board, options: BandOptions = {}): BoardV
 function buildBoardView(board: Board, options: BandOptions): BoardView {
   const memo = new Map<string, Band[]>();
   const bandsFor = (condition: string, substitutions: Substitutions): Band[] => {
-    const key = `${condition}\u0000${JSON.stringify(Object.entries(substitutions).sort(([a], [b]) => a.localeCompare(b)))}`;
+    const key = `${condition}\u0000${substitutionsKey(substitutions)}`;
     let bands = memo.get(key);
     if (!bands) {
       try {
@@ -62,15 +65,36 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
     }
     return bands;
   };
+  const hissMemo = new Map<string, ExpectedBand | undefined>();
+  const hissFor = (testPoint: string, condition: string, substitutions: Substitutions): ExpectedBand | undefined => {
+    const key = `${testPoint}\u0000${condition}\u0000${substitutionsKey(substitutions)}`;
+    if (!hissMemo.has(key)) {
+      let band: ExpectedBand | undefined;
+      try {
+        const { nominal, min, max, unit } = hissBand(withSubstitutions(board, substitutions), testPoint, condition);
+        band = { nominal, min, max, unit, kind: 'noise' };
+      } catch (error) {
+        if (!(error instanceof ConvergenceError || error instanceof UserInputError)) throw error;
+      }
+      hissMemo.set(key, band);
+    }
+    return hissMemo.get(key);
+  };
   return {
     board,
     testPoint: (role) => roleTestPoint(board, role),
     condition: (role) => roleCondition(board, role),
     parts: (role) => roleParts(board, role),
-    band: (testPoint, condition, substitutions) => {
+    band: (testPoint, condition, substitutions, quantity = 'dc') => {
+      if (quantity === 'noise') return hissFor(testPoint, condition, substitutions);
       const found = bandsFor(condition, substitutions).find((b) => b.id === testPoint && b.condition === condition);
       return found && { nominal: found.nominal, min: found.min, max: found.max, unit: found.unit };
     },
     railVolts: board.rails.map((r) => r.volts),
   };
+}
+
+/** The same changes in any order give the same key. */
+function substitutionsKey(substitutions: Substitutions): string {
+  return JSON.stringify(Object.entries(substitutions).sort(([a], [b]) => a.localeCompare(b)));
 }

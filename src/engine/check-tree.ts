@@ -2,6 +2,7 @@ import type { z } from 'zod';
 import type { Problem } from '../errors.js';
 import type { Board } from '../schemas/board.js';
 import { HAZARDS, TreeSchema, type Tree, type TreeNode } from '../schemas/tree.js';
+import { TEST_POINT_ROLE_QUANTITY } from '../schemas/roles.js';
 import { edgesOf, findCycle, guaranteedCover, hazardsNeeded, isPoweredStep, reachableFrom, uncoveredPath } from './tree-graph.js';
 
 /**
@@ -97,6 +98,15 @@ function roleProblems(tree: Tree, file: string, boards: Board[]): Problem[] {
         path: `nodes.${id}.powered`,
         message: `step "${id}" says powered: ${node.powered} under the condition "${node.condition}"`,
         accepted: 'powered: false exactly when the condition is "unpowered"',
+      });
+    }
+    if (node.kind === 'measure' && node.quantity === 'noise' && (!node.powered || TEST_POINT_ROLE_QUANTITY[node.testPoint] !== 'voltage')) {
+      problems.push({
+        code: 'tree.hiss-not-voltage',
+        file,
+        path: `nodes.${id}.quantity`,
+        message: `step "${id}" measures hiss at the ${TEST_POINT_ROLE_QUANTITY[node.testPoint]} test point role "${node.testPoint}"${node.powered ? '' : ' with the power off'}`,
+        accepted: 'quantity "noise" only at a voltage test point role on a powered step',
       });
     }
   }

@@ -22,12 +22,12 @@ type Transition = { target?: string; guard?: { type: string; params?: object }; 
 type StateConfig = { tags: string[]; meta: { node: string }; entry: Array<{ type: string; params?: object }>; always?: Transition[]; on?: Record<string, Transition[]> };
 
 /**
- * Where a measurement nobody could take leads: on as if it were in band when the tree says where
- * that is (the walk goes on to the next check rather than concluding a fault it never saw), else
- * the default branch.
+ * Where a measurement nobody could take leads: where the tree says (`skipTo`), else on as if it
+ * were in band (the walk goes on to the next check rather than concluding a fault it never saw),
+ * else the default branch.
  */
 export function skipBranch(node: MeasureNode): string {
-  return node.branches['in-band'] ?? node.branches.default;
+  return node.skipTo ?? node.branches['in-band'] ?? node.branches.default;
 }
 
 function planStep(id: string, node: TreeNode, view: BoardView, oscilloscope: boolean): StepPlan {
@@ -41,7 +41,7 @@ function planStep(id: string, node: TreeNode, view: BoardView, oscilloscope: boo
         ? lacks('test point', node.testPoint)
         : !plan.condition
           ? lacks('condition', node.condition)
-          : !view.band(plan.testPoint.id, plan.condition.id, {})
+          : !view.band(plan.testPoint.id, plan.condition.id, {}, node.quantity)
             ? `this board gives no expected value at ${plan.testPoint.id} under "${plan.condition.id}"`
             : undefined;
       if (reason) plan.skip = { reason, to: skipBranch(node) };

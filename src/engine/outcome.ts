@@ -7,6 +7,8 @@ export interface ExpectedBand {
   min: number;
   max: number;
   unit: 'V' | 'Ω';
+  /** "noise": a hiss level in volts rms (see hiss-band.ts), judged on its band alone. Absent: a DC reading. */
+  kind?: 'noise';
 }
 
 /**
@@ -29,6 +31,8 @@ export const NEAR_ZERO_OHMS = 1;
  * is "high", not "stuck"), then nothing, then low/high.
  */
 export function classifyReading(value: number, band: ExpectedBand, railVolts: number[], meter: MeterSpec = DEFAULT_METER): Outcome {
+  // A hiss level is neither at a rail nor a short: it is the design's own, or more, or less.
+  if (band.kind === 'noise') return value < band.min ? 'low' : value > band.max ? 'high' : 'in-band';
   const { below, above } = meterAllowance(band, meter);
   if (value >= band.min - below && value <= band.max + above) return 'in-band';
   if (band.unit === 'V') {
@@ -43,6 +47,8 @@ export function classifyReading(value: number, band: ExpectedBand, railVolts: nu
 
 /** How far beyond each edge of a band a reading still counts as in band: the meter's own accuracy there. */
 export function meterAllowance(band: ExpectedBand, meter: MeterSpec = DEFAULT_METER): { below: number; above: number } {
+  // A DC meter's counts mean nothing for a hiss level; its band already allows for the instrument.
+  if (band.kind === 'noise') return { below: 0, above: 0 };
   const slack = (edge: number) => (Number.isFinite(edge) ? meterAccuracy(edge, band.unit, meter) : 0);
   return { below: slack(band.min), above: slack(band.max) };
 }

@@ -21,7 +21,10 @@ export interface Ranking {
 /** Every reading of the walk so far, in the ranking's terms (board test point and condition ids). */
 export function walkReadings(context: WalkContext): Array<{ testPoint: string; condition: string; value: number }> {
   return [
-    ...Object.values(context.readings).map((r) => ({ testPoint: r.testPoint, condition: r.condition, value: r.value })),
+    // A hiss level is not a DC reading: the fault dictionary has nothing to compare it with.
+    ...Object.values(context.readings)
+      .filter((r) => r.band.kind !== 'noise')
+      .map((r) => ({ testPoint: r.testPoint, condition: r.condition, value: r.value })),
     ...context.extraReadings,
   ];
 }

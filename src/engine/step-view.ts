@@ -1,7 +1,7 @@
 import { UserInputError } from '../errors.js';
 import type { Hazard, Wording } from '../schemas/tree.js';
 import { HAZARDS } from '../schemas/tree.js';
-import { bandsFor, formatBand, formatReading, formatValue, parseReading, parseValue } from '../units/index.js';
+import { bandsFor, formatBand, formatReading, formatValue, parseHissReading, parseReading, parseValue, toDbu } from '../units/index.js';
 import type { ExpectedBand } from './outcome.js';
 import { rankFor, type Ranking } from './ranking.js';
 import { SAFETY_HOLD, type WalkContext, type WalkEvent } from './walk-context.js';
@@ -69,6 +69,10 @@ export function showValue(value: number, unit: string, figures?: number): string
 }
 
 export function describeBand(band: ExpectedBand): string {
+  if (band.kind === 'noise') {
+    const shown = formatBand(band.min, band.max, band.nominal, band.unit);
+    return `${shown.min} to ${shown.max} rms (nominal ${shown.nominal}, ${toDbu(band.nominal).toFixed(1)} dBu)`;
+  }
   if (!Number.isFinite(band.min) && !Number.isFinite(band.max)) return `open: the meter shows overload (OL)`;
   if (!Number.isFinite(band.max)) return `${showValue(band.min, band.unit)} or more, up to overload (nominal ${showValue(band.nominal, band.unit)})`;
   const shown = formatBand(band.min, band.max, band.nominal, band.unit);
@@ -126,7 +130,7 @@ export function currentStep(walk: WalkSetup, snapshot: { value: unknown; context
       return { ...base, kind: 'setup', say: node.say, condition };
     case 'measure': {
       const tp = plan.testPoint!;
-      const band = walk.view.band(tp.id, plan.condition!.id, context.substitutions);
+      const band = walk.view.band(tp.id, plan.condition!.id, context.substitutions, node.quantity);
       const step: WalkStep = {
         ...base,
         kind: 'measure',
@@ -189,6 +193,7 @@ export function readingEvent(step: WalkStep, text: string): WalkEvent {
       accepted: 'undo the part change, or skip this step',
     });
   }
+  if (step.expected.kind === 'noise') return { type: 'user.reading', value: parseHissReading(text, `hiss level at ${step.testPoint.id} (${step.node})`), text };
   // A meter on an open circuit shows overload ("OL") rather than a number.
   if (step.testPoint.quantity === 'resistance' && OVERLOAD.test(text)) return { type: 'user.reading', value: Infinity, text };
   const value = parseReading(text, step.testPoint.quantity, `reading at ${step.testPoint.id} (${step.node})`);

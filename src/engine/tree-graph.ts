@@ -13,9 +13,12 @@ export function edgesOf(node: TreeNode): Edge[] {
     case 'setup':
       return [{ via: 'next', to: node.next }];
     case 'measure':
-      return Object.entries(node.branches)
-        .filter((e): e is [string, string] => e[1] !== undefined)
-        .map(([via, to]) => ({ via: `branches.${via}`, to }));
+      return [
+        ...Object.entries(node.branches)
+          .filter((e): e is [string, string] => e[1] !== undefined)
+          .map(([via, to]) => ({ via: `branches.${via}`, to })),
+        ...(node.skipTo ? [{ via: 'skipTo', to: node.skipTo }] : []),
+      ];
     case 'observe': {
       const edges = Object.entries(node.choices).map(([id, c]) => ({ via: `choices.${id}.next`, to: c.next }));
       return node.alternative ? [...edges, { via: 'alternative', to: node.alternative }] : edges;

@@ -14,7 +14,7 @@ export const ReadingRecordSchema = z
     /** As typed, and as parsed (SI). */
     text: z.string(),
     value: z.number(),
-    band: z.object({ nominal: z.number(), min: z.number(), max: z.number(), unit: z.enum(['V', 'Ω']) }).strict(),
+    band: z.object({ nominal: z.number(), min: z.number(), max: z.number(), unit: z.enum(['V', 'Ω']), kind: z.literal('noise').optional() }).strict(),
     outcome: OutcomeSchema,
     /** The branch the tree took. */
     branch: z.string(),

@@ -81,6 +81,7 @@ function acceptedFor(step: ReturnType<typeof currentStep>): string {
     case 'setup':
       return 'true once done';
     case 'measure':
+      if (step.expected?.kind === 'noise') return 'a hiss level such as "390uV" or "-66 dBu", or "skip"';
       return `a ${step.testPoint?.quantity} reading such as ${step.testPoint?.quantity === 'resistance' ? '"10k"' : '"4.2 V"'}, or "skip"`;
     default:
       return (step.choices ?? []).map((c) => `"${c.id}"`).join(', ');

@@ -33,7 +33,7 @@ export function routeReading(walk: WalkSetup, nodeId: string, value: number, tex
   const node = walk.tree.nodes[nodeId] as MeasureNode;
   const plan = walk.plans[nodeId];
   if (!plan?.testPoint || !plan.condition) return undefined;
-  const band = walk.view.band(plan.testPoint.id, plan.condition.id, context.substitutions);
+  const band = walk.view.band(plan.testPoint.id, plan.condition.id, context.substitutions, node.quantity);
   if (!band) return undefined;
   const outcome = classifyReading(value, band, walk.view.railVolts);
   return { testPoint: plan.testPoint.id, condition: plan.condition.id, text, value, band, outcome, branch: branchFor(node.branches, outcome, value, band) };

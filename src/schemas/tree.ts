@@ -65,6 +65,14 @@ export const MeasureNodeSchema = z
     testPoint: TestPointRoleSchema,
     condition: ConditionRoleSchema,
     powered: z.boolean(),
+    /**
+     * "dc" (default): a DC voltage or a resistance on a multimeter. "noise": the hiss at a voltage
+     * test point, rms over 20 Hz–20 kHz unweighted, read with an audio interface or AC
+     * millivoltmeter (µV, mV or dBu); its band is the design's own hiss there (hiss-band.ts).
+     */
+    quantity: z.enum(['dc', 'noise']).default('dc'),
+    /** Where a skipped measurement goes, when not the in-band branch (a skipped hiss level proves nothing). */
+    skipTo: NodeIdSchema.optional(),
     /** Hazards a caution earlier on every path must have covered. */
     hazards: z.array(HazardSchema).default([]),
     say: WordingSchema,

@@ -3,3 +3,5 @@ export { formatValue, formatReading, formatAligned, formatBand, bandFigures } fr
 export { E_SERIES, SERIES_NAMES, nearestPreferred, isPreferred, type SeriesName, type Preferred } from './e-series.js';
 export { COLOURS, toColour, decodeBands, encodeBands, bandsFor, type Colour, type BandReading } from './colour-code.js';
 export { TOLERANCE_LETTERS } from './letter-code.js';
+export { parseHissReading } from './parse-hiss.js';
+export { DBU_REFERENCE_VOLTS, toDbu, fromDbu } from './decibels.js';

@@ -117,6 +117,12 @@ describe('tree checks', () => {
     expect(problems[0]).toMatchObject({ code: 'tree.shape', path: 'nodes.end.alternative' });
   });
 
+  it('takes a hiss level only at a voltage test point on a powered step', () => {
+    expect(problemsOf(tree({ ...good, out: { ...good.out, quantity: 'noise' } })).filter((p) => p.code === 'tree.hiss-not-voltage')).toEqual([]);
+    const atOhms = problemsOf(tree({ ...good, out: { ...good.out, quantity: 'noise', testPoint: 'pos-rail-resistance', condition: 'unpowered', powered: false } }));
+    expect(atOhms).toContainEqual(expect.objectContaining({ code: 'tree.hiss-not-voltage', path: 'nodes.out.quantity' }));
+  });
+
   it('rejects a measurement whose powered flag contradicts its condition', () => {
     const problems = problemsOf(tree({ ...good, out: { ...good.out, condition: 'unpowered' } }));
     expect(problems).toContainEqual(expect.objectContaining({ code: 'tree.powered-mismatch', path: 'nodes.out.powered' }));

@@ -17,3 +17,4 @@ export {
 } from './noise.js';
 export { detectorTimes, LN9, type DetectorTimes, type PathTime, type PathPart } from './detector-times.js';
 export { makeupNoise, type MakeupNoise, type MakeupNoiseOptions } from './makeup-noise.js';
+export { hissBand, HISS_ABOVE_DB, HISS_BELOW_DB, type HissBand } from './hiss-band.js';

@@ -1,5 +1,6 @@
 import type { Circuit, Element, OpAmp } from '../netlist.js';
 import { GROUND } from '../netlist.js';
+import { DBU_REFERENCE_VOLTS, toDbu } from '../../units/decibels.js';
 import { createAcSolver, potResistances, solveDC, type AcSolver, type DcSolution } from '../index.js';
 
 /**
@@ -25,7 +26,7 @@ import { createAcSolver, potResistances, solveDC, type AcSolver, type DcSolution
  */
 
 export const BOLTZMANN = 1.380649e-23;
-export const DBU_REFERENCE_VOLTS = 0.7746;
+export { DBU_REFERENCE_VOLTS, toDbu };
 
 export interface NoiseOptions {
   /** Node whose voltage is the output (lower-case netlist name). */
@@ -81,9 +82,6 @@ interface NoiseSource {
   circuit: Circuit;
 }
 
-export function toDbu(volts: number): number {
-  return 20 * Math.log10(volts / DBU_REFERENCE_VOLTS);
-}
 
 /** √(4kTR) in V/√Hz. */
 export function thermalNoiseDensity(ohms: number, temperatureK: number): number {

@@ -69,7 +69,7 @@ export function MeasureScreen({ width, title, stageMap, text, testPoint, conditi
         </Text>
       </Box>
       <Box marginTop={1}>
-        <TextField label={`Reading (${unit}):`} placeholder={unit === 'V' ? 'e.g. 4.2 or 420mV' : 'e.g. 4k7 or 120'} isActive={isActive} check={check} onSubmit={onReading} onCancel={onBack} />
+        <TextField label={band?.kind === 'noise' ? 'Hiss level (rms):' : `Reading (${unit}):`} placeholder={band?.kind === 'noise' ? 'e.g. 390uV or -66 dBu' : unit === 'V' ? 'e.g. 4.2 or 420mV' : 'e.g. 4k7 or 120'} isActive={isActive} check={check} onSubmit={onReading} onCancel={onBack} />
       </Box>
     </Frame>
   );
