@@ -1,5 +1,5 @@
 import { roleCondition, roleParts, roleTestPoint, withSubstitutions } from '../board/index.js';
-import { expectBands, hissBand, type Band } from '../circuit/analysis/index.js';
+import { detectorTimeBand, expectBands, hissBand, type Band, type TimeBand } from '../circuit/analysis/index.js';
 import { ConvergenceError } from '../circuit/index.js';
 import { UserInputError } from '../errors.js';
 import type { Board, Condition, Part, TestPoint } from '../schemas/board.js';
@@ -24,6 +24,8 @@ export interface BoardView {
    */
   band(testPoint: string, condition: string, substitutions: Substitutions, quantity?: 'dc' | 'noise'): ExpectedBand | undefined;
   railVolts: number[];
+  /** A detector time band for the current part values; undefined when the board lacks the parts' roles. */
+  time(which: 'attack' | 'release', knob: 'fastest' | 'slowest', substitutions: Substitutions): TimeBand | undefined;
 }
 
 export interface BandOptions {
@@ -91,6 +93,14 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
       return found && { nominal: found.nominal, min: found.min, max: found.max, unit: found.unit };
     },
     railVolts: board.rails.map((r) => r.volts),
+    time: (which, knob, substitutions) => {
+      try {
+        return detectorTimeBand(withSubstitutions(board, substitutions), which, knob);
+      } catch (error) {
+        if (error instanceof UserInputError) return undefined;
+        throw error;
+      }
+    },
   };
 }
 

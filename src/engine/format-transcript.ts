@@ -18,6 +18,7 @@ function entryLines(e: TranscriptEntry, n: number, wording: Wording): string[] {
   if (e.reading && e.expected) {
     lines.push(`    expected ${e.expected.text}; read ${showValue(e.reading.value, e.expected.unit)} → ${e.reading.outcome}`);
   }
+  if (e.expectation) lines.push(`    expected: ${e.expectation}`);
   if (e.answer && !e.reading) lines.push(`    answer: ${answerText(e, wording)}`);
   return lines;
 }

@@ -1,8 +1,9 @@
 import { UserInputError } from '../errors.js';
-import type { Hazard, Wording } from '../schemas/tree.js';
+import type { Hazard, TreeNode, Wording } from '../schemas/tree.js';
 import { HAZARDS } from '../schemas/tree.js';
 import { bandsFor, formatBand, formatReading, formatValue, parseHissReading, parseReading, parseValue, toDbu } from '../units/index.js';
 import type { ExpectedBand } from './outcome.js';
+import type { TimeBand } from '../circuit/analysis/detector-times.js';
 import { rankFor, type Ranking } from './ranking.js';
 import { SAFETY_HOLD, type WalkContext, type WalkEvent } from './walk-context.js';
 import { backTarget, type WalkSetup } from './walk-machine.js';
@@ -42,6 +43,8 @@ export interface WalkStep {
   /** observe, inspect: the answers accepted by `user.answer`. */
   choices?: Array<{ id: string; label: string; customerLabel?: string }>;
   instrument?: 'senses' | 'multimeter' | 'oscilloscope';
+  /** observe: what the board's parts say the answer should be (a detector time), when the step asks for one and the board has the parts. */
+  expectation?: string;
   /** inspect: what to look at and the parts behind the role. */
   look?: string;
   parts?: PartView[];
@@ -77,6 +80,25 @@ export function describeBand(band: ExpectedBand): string {
   if (!Number.isFinite(band.max)) return `${showValue(band.min, band.unit)} or more, up to overload (nominal ${showValue(band.nominal, band.unit)})`;
   const shown = formatBand(band.min, band.max, band.nominal, band.unit);
   return `${shown.min} to ${shown.max} (nominal ${shown.nominal})`;
+}
+
+/**
+ * A detector time as the person reads it beside the question: "release, 10–90 %, with its knob at
+ * the slow end: 2.25 s (1.72 s to 2.82 s with part tolerances), from R22 22 kΩ + RV3 1 MΩ and C14".
+ */
+export function describeTime(t: TimeBand): string {
+  const shown = formatBand(t.min, t.max, t.nominal, 's');
+  // A pot at the end of its track adds next to nothing: name only the parts that set the time.
+  const path = t.path.parts.filter((p) => p.ohms >= 1).map((p) => `${p.ref} ${formatValue(p.ohms, 'Ω')}`).join(' + ');
+  const knob = t.path.parts.some((p) => p.position !== undefined) ? `, ${t.which} knob at its ${t.knob === 'fastest' ? 'fast' : 'slow'} end` : '';
+  return `${t.which} time (10–90 %)${knob}: ${shown.nominal} (${shown.min} to ${shown.max} with part tolerances), from ${path} with ${t.capacitors.join(' + ')}`;
+}
+
+/** What an observe step's question should find on this board, in words (undefined when it asks for nothing, or the board lacks the parts). */
+export function expectationOf(walk: WalkSetup, node: TreeNode, context: WalkContext): string | undefined {
+  if (node.kind !== 'observe' || !node.expect) return undefined;
+  const time = walk.view.time(node.expect.time, node.expect.knob, context.substitutions);
+  return time && describeTime(time);
 }
 
 function partView(walk: WalkSetup, ref: string, context: WalkContext): PartView {
@@ -143,7 +165,8 @@ export function currentStep(walk: WalkSetup, snapshot: { value: unknown; context
       if (node.suggestProbe) step.suggestion = rankFor(walk, context).next;
       return step;
     }
-    case 'observe':
+    case 'observe': {
+      const expectation = expectationOf(walk, node, context);
       return {
         ...base,
         kind: 'observe',
@@ -151,7 +174,9 @@ export function currentStep(walk: WalkSetup, snapshot: { value: unknown; context
         canSkip: node.alternative !== undefined,
         instrument: node.instrument,
         choices: Object.entries(node.choices).map(([cid, c]) => ({ id: cid, label: c.label, customerLabel: c.customerLabel })),
+        ...(expectation ? { expectation } : {}),
       };
+    }
     case 'inspect':
       return {
         ...base,

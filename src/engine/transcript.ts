@@ -1,6 +1,6 @@
 import type { Problem } from '../errors.js';
 import type { Wording } from '../schemas/tree.js';
-import { describeBand, currentStep, INSPECT_CHOICES, type WalkStep } from './step-view.js';
+import { describeBand, currentStep, expectationOf, INSPECT_CHOICES, type WalkStep } from './step-view.js';
 import type { ExpectedBand } from './outcome.js';
 import type { WalkContext } from './walk-context.js';
 import type { WalkSetup } from './walk-machine.js';
@@ -16,6 +16,8 @@ export interface TranscriptEntry {
   expected?: ExpectedBand & { text: string };
   reading?: { text: string; value: number; outcome: string; branch: string };
   answer?: { id: string; label: string; customerLabel?: string };
+  /** observe: what the board's parts say the answer should be (see WalkStep.expectation). */
+  expectation?: string;
 }
 
 /** A walk so far, for printing, saving with a case, or the UI's summary. */
@@ -55,6 +57,8 @@ export function transcriptOf(walk: WalkSetup, snapshot: { value: unknown; contex
     }
     const a = context.answers[id];
     if (a !== undefined) entry.answer = { id: a, ...answerLabels(walk, id, a) };
+    const expectation = expectationOf(walk, plan.node, context);
+    if (expectation && entry.skipped === undefined) entry.expectation = expectation;
     return entry;
   });
   return {

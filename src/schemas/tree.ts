@@ -111,6 +111,11 @@ export const ObserveNodeSchema = z
     instrument: z.enum(['senses', 'multimeter', 'oscilloscope']).default('senses'),
     /** Where to go without that instrument, or when the person skips the question. */
     alternative: NodeIdSchema.optional(),
+    /**
+     * A time the question is about, computed from the board's parts and shown beside it: the
+     * detector's attack or release (10–90 %), with its knob at the fast or slow end of its travel.
+     */
+    expect: z.object({ time: z.enum(['attack', 'release']), knob: z.enum(['fastest', 'slowest']) }).strict().optional(),
   })
   .strict()
   .refine((n) => n.instrument !== 'oscilloscope' || n.alternative !== undefined, {

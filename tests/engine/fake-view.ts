@@ -40,6 +40,7 @@ export function fakeView(options: { lacks?: string[] } = {}): BoardView {
       return { nominal: kohm, min: kohm - 0.2, max: kohm + 0.2, unit: 'V' };
     },
     railVolts: [12, -12],
+    time: () => undefined,
   };
 }
 

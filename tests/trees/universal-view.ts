@@ -32,6 +32,7 @@ export function universalView(): BoardView {
     parts: (role) => [parts[Object.keys(PART_ROLES).indexOf(role)] as unknown as Board['parts'][number]],
     band: (testPoint) => (testPoint === 'TP-pos-rail-resistance' || testPoint === 'TP-neg-rail-resistance' ? OHM_BAND : VOLT_BAND),
     railVolts: [12, -12],
+    time: () => undefined,
   };
 }
 

@@ -2,7 +2,7 @@ import type { Board, Part } from '../../schemas/board.js';
 import type { Potentiometer } from '../netlist.js';
 import { potResistances } from '../index.js';
 import { DEFAULT_POT_POSITION } from '../../board/defaults.js';
-import { partValue, preparedPart } from '../../board/values.js';
+import { partTolerance, partValue, preparedPart } from '../../board/values.js';
 import { roleParts } from '../../board/lookup.js';
 import type { PartRole } from '../../schemas/roles.js';
 import { UserInputError } from '../../errors.js';
@@ -50,8 +50,8 @@ export interface DetectorTimes {
   release: PathTime;
 }
 
-export function detectorTimes(board: Board, condition?: string): DetectorTimes {
-  const settings = conditionSettings(board, condition);
+export function detectorTimes(board: Board, condition?: string, knobs: Record<string, number> = {}): DetectorTimes {
+  const settings = { ...conditionSettings(board, condition), ...knobs };
   const caps = roleRefs(board, 'detector-capacitor');
   if (caps.length === 0) throw missingRole(board, 'detector-capacitor');
   const capacitance = caps.reduce((sum, ref) => sum + partValue(board, ref), 0);
@@ -124,4 +124,35 @@ function potSegmentInPath(board: Board, part: Part, aw: number, wb: number): num
   if (!used(a)) return wb;
   if (!used(b)) return aw;
   return aw + wb;
+}
+
+export interface TimeBand {
+  which: 'attack' | 'release';
+  knob: 'fastest' | 'slowest';
+  /** 10 %–90 % times in seconds: the parts at their values, and at the ends of their tolerances. */
+  nominal: number;
+  min: number;
+  max: number;
+  /** The path behind the nominal, and each pot's position in it. */
+  path: PathTime;
+  capacitors: string[];
+}
+
+/**
+ * A detector time as a band, with its knob at the fast or the slow end of its travel (whichever end
+ * puts less or more resistance in the path on this board, so a tree need not know how a pot is
+ * wired). Each part's tolerance (board file, value text, else the kind's default) moves its ohms or
+ * farads: τ = (ΣR)·(ΣC) grows with every one of them, so the band's ends are the products of the
+ * sums at their low and high ends, exactly (worst case, no sensitivity needed).
+ */
+export function detectorTimeBand(board: Board, which: 'attack' | 'release', knob: 'fastest' | 'slowest'): TimeBand {
+  const potRefs = roleRefs(board, which === 'attack' ? 'attack-pot' : 'release-pot');
+  const at = (position: number) => detectorTimes(board, undefined, Object.fromEntries(potRefs.map((ref) => [ref, position])));
+  const ends = [at(0), at(1)].sort((a, b) => a[which].tau - b[which].tau);
+  const times = knob === 'fastest' ? ends[0] : ends[1];
+  const path = times[which];
+  const spread = (ref: string) => partTolerance(board, ref) ?? 0;
+  const ohms = (sign: number) => path.parts.reduce((sum, p) => sum + p.ohms * (1 + sign * spread(p.ref)), 0);
+  const farads = (sign: number) => times.capacitors.reduce((sum, ref) => sum + partValue(board, ref) * (1 + sign * spread(ref)), 0);
+  return { which, knob, nominal: path.riseTime, min: ohms(-1) * farads(-1) * LN9, max: ohms(1) * farads(1) * LN9, path, capacitors: times.capacitors };
 }

@@ -15,6 +15,6 @@ export {
   type NoiseResult,
   type NoiseContribution,
 } from './noise.js';
-export { detectorTimes, LN9, type DetectorTimes, type PathTime, type PathPart } from './detector-times.js';
+export { detectorTimes, detectorTimeBand, LN9, type DetectorTimes, type PathTime, type PathPart, type TimeBand } from './detector-times.js';
 export { makeupNoise, type MakeupNoise, type MakeupNoiseOptions } from './makeup-noise.js';
 export { hissBand, HISS_ABOVE_DB, HISS_BELOW_DB, type HissBand } from './hiss-band.js';

@@ -122,6 +122,7 @@ export function WalkView({ services, run, width, wording, ranking, send, onSumma
           stageMap={stageMap}
           heading={step.kind === 'observe' ? 'LOOK / LISTEN' : 'INSPECT'}
           text={text}
+          expectation={step.expectation}
           parts={step.parts}
           choices={(step.choices ?? []).map((c) => ({ id: c.id, label: wording === 'customer' ? (c.customerLabel ?? c.label) : c.label }))}
           canSkip={step.canSkip}

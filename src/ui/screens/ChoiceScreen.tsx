@@ -3,6 +3,9 @@ import { Box, Text, useInput } from 'ink';
 import { Frame } from '../components/frame/Frame.js';
 import { ChoiceList } from '../components/choice-list/ChoiceList.js';
 import { partLine, type PartLineInfo } from '../parts/part-info.js';
+import { FlushLines, Prose } from '../components/prose/Prose.js';
+import { keepUnitsTogether } from '../components/prose/keep-units.js';
+import { Tinted } from '../theme/Tinted.js';
 
 interface Props {
   width: number;
@@ -10,6 +13,8 @@ interface Props {
   stageMap?: React.ReactNode;
   heading: string;
   text: string;
+  /** What the board's parts say the answer should be (a detector time), shown under the question. */
+  expectation?: string;
   /** Parts to look at (inspect steps). */
   parts?: PartLineInfo[];
   choices: Array<{ id: string; label: string }>;
@@ -21,7 +26,7 @@ interface Props {
 }
 
 /** A question answered by looking or listening: an observation, or an inspection of parts. */
-export function ChoiceScreen({ width, title, stageMap, heading, text, parts = [], choices, canSkip, isActive = true, onChoose, onSkip, onBack }: Props) {
+export function ChoiceScreen({ width, title, stageMap, heading, text, expectation, parts = [], choices, canSkip, isActive = true, onChoose, onSkip, onBack }: Props) {
   useInput(
     (_input, key) => {
       if (key.escape) onBack();
@@ -38,7 +43,15 @@ export function ChoiceScreen({ width, title, stageMap, heading, text, parts = []
       {stageMap}
       <Box marginTop={stageMap ? 1 : 0} flexDirection="column">
         <Text bold>{heading}</Text>
-        <Text>{text}</Text>
+        <Prose>{text}</Prose>
+        {expectation ? (
+          <FlushLines>
+            <Text>
+              <Tinted tone="quiet">Expect: </Tinted>
+              {keepUnitsTogether(expectation)}
+            </Text>
+          </FlushLines>
+        ) : null}
         {parts.slice(0, 6).map((p) => (
           <Text key={p.ref} wrap="truncate-end">
             - {partLine(p)}

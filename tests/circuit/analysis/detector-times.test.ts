@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { detectorTimes, LN9 } from '../../../src/circuit/analysis/index.js';
+import { detectorTimeBand, detectorTimes, LN9 } from '../../../src/circuit/analysis/index.js';
 import { smallBoard } from './fixtures/small-board.js';
 import { runNgspice, startNgspice } from '../../reference/ngspice.js';
 
@@ -21,6 +21,20 @@ describe('detector time constants from roles', () => {
     // RV2 at position 0: the whole 1 MΩ track is between wiper (pin 1 end) and pin 3.
     expect(t.release.tau).toBeCloseTo(1.1, 9);
     expect(t.release.parts.find((p) => p.ref === 'RV2')?.position).toBe(0);
+  });
+
+  it('gives a time as a band over part tolerances, with the knob at whichever end is fast or slow on this board', () => {
+    // R6 100 kΩ (±1 %, the resistor default), RV2 1 MΩ track (±20 %, the pot default), C1 1 µF (±10 %, the
+    // capacitor default); 10–90 % = (ΣR)(ΣC)·ln 9, worked by hand.
+    const slow = detectorTimeBand(board, 'release', 'slowest');
+    expect(slow.nominal).toBeCloseTo(1.1 * Math.log(9), 6); // 2.417 s: RV2's whole track in the path
+    expect(slow.min).toBeCloseTo((99e3 + 800e3) * 0.9e-6 * Math.log(9), 6); // 1.778 s
+    expect(slow.max).toBeCloseTo((101e3 + 1.2e6) * 1.1e-6 * Math.log(9), 6); // 3.145 s
+    const fast = detectorTimeBand(board, 'release', 'fastest');
+    expect(fast.nominal).toBeCloseTo(0.1 * Math.log(9), 6); // 0.2197 s: the pot's end adds next to nothing
+    expect(fast.min).toBeCloseTo(99e3 * 0.9e-6 * Math.log(9), 6);
+    expect(fast.max).toBeCloseTo(101e3 * 1.1e-6 * Math.log(9), 6);
+    expect(fast).toMatchObject({ which: 'release', knob: 'fastest', capacitors: ['C1'] });
   });
 
   it('names the missing role when a board has no detector', () => {
