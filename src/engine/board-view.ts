@@ -1,4 +1,4 @@
-import { roleCondition, roleParts, roleTestPoint, withSubstitutions } from '../board/index.js';
+import { buildCircuit, railSourceName, roleCondition, roleParts, roleTestPoint, solvePatiently, withSubstitutions } from '../board/index.js';
 import { detectorTimeBand, expectBands, hissBand, type Band, type TimeBand } from '../circuit/analysis/index.js';
 import { ConvergenceError } from '../circuit/index.js';
 import { UserInputError } from '../errors.js';
@@ -24,6 +24,11 @@ export interface BoardView {
    */
   band(testPoint: string, condition: string, substitutions: Substitutions, quantity?: 'dc' | 'noise'): ExpectedBand | undefined;
   railVolts: number[];
+  /**
+   * What each rail supplies to the board at rest (its quiescent-role condition), amps, for the current
+   * part values; undefined when the board names no quiescent condition or it cannot be solved.
+   */
+  idleDraw(substitutions: Substitutions): Array<{ rail: string; amps: number }> | undefined;
   /** A detector time band for the current part values; undefined when the board lacks the parts' roles. */
   time(which: 'attack' | 'release', knob: 'fastest' | 'slowest', substitutions: Substitutions): TimeBand | undefined;
 }
@@ -93,6 +98,19 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
       return found && { nominal: found.nominal, min: found.min, max: found.max, unit: found.unit };
     },
     railVolts: board.rails.map((r) => r.volts),
+    idleDraw: (substitutions) => {
+      const condition = roleCondition(board, 'quiescent');
+      if (!condition) return undefined;
+      try {
+        const { circuit } = buildCircuit(withSubstitutions(board, substitutions), condition.id);
+        const solved = solvePatiently(circuit);
+        // SPICE's sense (into the + terminal through the source) differs in sign between the rails; the draw is its size.
+        return board.rails.map((r) => ({ rail: r.label, amps: Math.abs(solved.sourceCurrents[railSourceName(r.id)] ?? NaN) }));
+      } catch (error) {
+        if (error instanceof ConvergenceError || error instanceof UserInputError) return undefined;
+        throw error;
+      }
+    },
     time: (which, knob, substitutions) => {
       try {
         return detectorTimeBand(withSubstitutions(board, substitutions), which, knob);

@@ -43,7 +43,10 @@ export interface WalkStep {
   /** observe, inspect: the answers accepted by `user.answer`. */
   choices?: Array<{ id: string; label: string; customerLabel?: string }>;
   instrument?: 'senses' | 'multimeter' | 'oscilloscope';
-  /** observe: what the board's parts say the answer should be (a detector time), when the step asks for one and the board has the parts. */
+  /**
+   * observe: what the board's parts say the answer should be (a detector time); caution before a
+   * first power-up: the idle draw to set the current limit by. See expectationOf.
+   */
   expectation?: string;
   /** inspect: what to look at and the parts behind the role. */
   look?: string;
@@ -94,8 +97,19 @@ export function describeTime(t: TimeBand): string {
   return `${t.which} time (10–90 %)${knob}: ${shown.nominal} (${shown.min} to ${shown.max} with part tolerances), from ${path} with ${t.capacitors.join(' + ')}`;
 }
 
-/** What an observe step's question should find on this board, in words (undefined when it asks for nothing, or the board lacks the parts). */
+/**
+ * What a step should find on this board, worked out from its parts, in words: the detector time an
+ * observe step asks about, or the idle draw to set the current limit by before a first power-up.
+ * Undefined when the step asks for nothing, or the board lacks what it takes.
+ */
 export function expectationOf(walk: WalkSetup, node: TreeNode, context: WalkContext): string | undefined {
+  if (node.kind === 'caution' && node.covers.includes('first-power-up-current-limit')) {
+    const draw = walk.view.idleDraw(context.substitutions);
+    if (!draw || draw.some((d) => !Number.isFinite(d.amps))) return undefined;
+    const list = draw.map((d) => `${formatValue(d.amps, 'A')} from ${d.rail}`);
+    const joined = list.length > 1 ? `${list.slice(0, -1).join(', ')} and ${list.at(-1)}` : list[0];
+    return `idle draw about ${joined} (worked out from the parts, op-amps at their typical supply current): set the current limit a little above it`;
+  }
   if (node.kind !== 'observe' || !node.expect) return undefined;
   const time = walk.view.time(node.expect.time, node.expect.knob, context.substitutions);
   return time && describeTime(time);
@@ -146,8 +160,10 @@ export function currentStep(walk: WalkSetup, snapshot: { value: unknown; context
   const node = plan.node;
   const condition = plan.condition && { id: plan.condition.id, label: plan.condition.label, instructions: plan.condition.instructions, powered: plan.condition.powered };
   switch (node.kind) {
-    case 'caution':
-      return { ...base, kind: 'caution', say: node.say, covers: node.covers.map(hazardText) };
+    case 'caution': {
+      const expectation = expectationOf(walk, node, context);
+      return { ...base, kind: 'caution', say: node.say, covers: node.covers.map(hazardText), ...(expectation ? { expectation } : {}) };
+    }
     case 'setup':
       return { ...base, kind: 'setup', say: node.say, condition };
     case 'measure': {

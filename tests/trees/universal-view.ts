@@ -33,6 +33,7 @@ export function universalView(): BoardView {
     band: (testPoint) => (testPoint === 'TP-pos-rail-resistance' || testPoint === 'TP-neg-rail-resistance' ? OHM_BAND : VOLT_BAND),
     railVolts: [12, -12],
     time: () => undefined,
+    idleDraw: () => undefined,
   };
 }
 

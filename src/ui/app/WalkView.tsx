@@ -60,6 +60,7 @@ export function WalkView({ services, run, width, wording, ranking, send, onSumma
           title={title}
           text={text}
           hazards={(step.covers ?? []).map((c) => c.text)}
+          expectation={step.expectation}
           onAcknowledge={() => send({ type: 'user.acknowledge' })}
           onBack={back}
         />

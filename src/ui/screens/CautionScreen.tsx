@@ -12,6 +12,8 @@ interface Props {
   stageMap?: React.ReactNode;
   text: string;
   hazards: string[];
+  /** Worked out from the board for this caution (the idle draw to set a current limit by). */
+  expectation?: string;
   isActive?: boolean;
   onAcknowledge: () => void;
   onBack: () => void;
@@ -26,7 +28,7 @@ function acknowledge(text: string): Check<true> {
 }
 
 /** The hazard in plain words before any powered step. */
-export function CautionScreen({ width, title, stageMap, text, hazards, isActive = true, onAcknowledge, onBack }: Props) {
+export function CautionScreen({ width, title, stageMap, text, hazards, expectation, isActive = true, onAcknowledge, onBack }: Props) {
   return (
     <Frame title={title} width={width} hints={[{ key: 'y Enter', does: 'I have read this' }, { key: 'Esc', does: 'back' }, { key: 'Ctrl-C', does: 'quit, saved' }]}>
       {stageMap}
@@ -38,6 +40,7 @@ export function CautionScreen({ width, title, stageMap, text, hazards, isActive 
         {hazards.map((h) => (
           <Bullet key={h}>{h}</Bullet>
         ))}
+        {expectation ? <Prose>{`This board: ${expectation}.`}</Prose> : null}
       </Box>
       <Box marginTop={1}>
         <TextField label={`Read it? Type ${ACKNOWLEDGE_WORD} and Enter:`} isActive={isActive} check={acknowledge} onSubmit={() => onAcknowledge()} onCancel={onBack} />

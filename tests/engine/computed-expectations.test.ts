@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { createActor } from 'xstate';
-import { DEMO_BOARD_FILE, loadBoard, measureAll } from '../../src/board/index.js';
+import { buildCircuit, DEMO_BOARD_FILE, loadBoard, measureAll, railSourceName, solvePatiently } from '../../src/board/index.js';
+import { formatValue } from '../../src/units/index.js';
 import { detectorTimeBand } from '../../src/circuit/analysis/index.js';
 import { createWalkMachine, currentStep, findTree, formatTranscriptText, walkFromAnswers } from '../../src/engine/index.js';
 
@@ -51,5 +52,31 @@ describe('a release question beside the computed release time', () => {
     expect(formatTranscriptText(t)).toContain(`    expected: ${entry.expectation}`);
     // The oscilloscope route was passed over: no expectation is printed for a step not asked.
     expect(t.entries.find((e) => e.node === 'release-scope')?.expectation).toBeUndefined();
+  });
+});
+
+describe('the first power-up caution beside the idle draw', () => {
+  const board = loadBoard(DEMO_BOARD_FILE);
+  const tree = findTree('first-power-up');
+  const caution = Object.entries(tree.nodes).find(([, n]) => n.kind === 'caution' && n.covers.includes('first-power-up-current-limit'))![0];
+
+  it('names what each rail supplies at rest, as the solver finds it, and follows a changed part', () => {
+    const { machine, walk } = createWalkMachine(tree, board, { samples: 0, ranking: false });
+    const actor = createActor(machine).start();
+    const step = currentStep(walk, { value: caution, context: actor.getSnapshot().context });
+    const { circuit } = buildCircuit(board, board.roles.conditions.quiescent!);
+    const currents = solvePatiently(circuit).sourceCurrents;
+    const draws = board.rails.map((r) => Math.abs(currents[railSourceName(r.id)]));
+    // Tens of mA per rail on this board, as the caution's own words expect.
+    for (const amps of draws) expect(amps).toBeGreaterThan(5e-3);
+    expect(step.expectation).toBe(
+      `idle draw about ${formatValue(draws[0], 'A')} from +12 V and ${formatValue(draws[1], 'A')} from −12 V (worked out from the parts, op-amps at their typical supply current): set the current limit a little above it`,
+    );
+    // R35 feeds the meter ladder from +12 V to ground: a tenth of its value (7k5 for 75k) loads that rail more.
+    const fitted = walk.view.idleDraw({ R35: '7k5' })!;
+    expect(fitted[0].amps).toBeGreaterThan(draws[0]);
+    expect(fitted[0].amps - draws[0]).toBeGreaterThan(0.1e-3);
+    const other = currentStep(walk, { value: 'look-electrolytics', context: actor.getSnapshot().context });
+    expect(other.expectation).toBeUndefined();
   });
 });
