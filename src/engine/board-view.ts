@@ -72,6 +72,7 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
     }
     return bands;
   };
+  const drawMemo = new Map<string, Array<{ rail: string; amps: number }> | undefined>();
   const hissMemo = new Map<string, ExpectedBand | undefined>();
   const hissFor = (testPoint: string, condition: string, substitutions: Substitutions): ExpectedBand | undefined => {
     const key = `${testPoint}\u0000${condition}\u0000${substitutionsKey(substitutions)}`;
@@ -99,17 +100,9 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
     },
     railVolts: board.rails.map((r) => r.volts),
     idleDraw: (substitutions) => {
-      const condition = roleCondition(board, 'quiescent');
-      if (!condition) return undefined;
-      try {
-        const { circuit } = buildCircuit(withSubstitutions(board, substitutions), condition.id);
-        const solved = solvePatiently(circuit);
-        // SPICE's sense (into the + terminal through the source) differs in sign between the rails; the draw is its size.
-        return board.rails.map((r) => ({ rail: r.label, amps: Math.abs(solved.sourceCurrents[railSourceName(r.id)] ?? NaN) }));
-      } catch (error) {
-        if (error instanceof ConvergenceError || error instanceof UserInputError) return undefined;
-        throw error;
-      }
+      const key = substitutionsKey(substitutions);
+      if (!drawMemo.has(key)) drawMemo.set(key, idleDrawOf(board, substitutions));
+      return drawMemo.get(key);
     },
     time: (which, knob, substitutions) => {
       try {
@@ -120,6 +113,20 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
       }
     },
   };
+}
+
+function idleDrawOf(board: Board, substitutions: Substitutions): Array<{ rail: string; amps: number }> | undefined {
+  const condition = roleCondition(board, 'quiescent');
+  if (!condition) return undefined;
+  try {
+    const { circuit } = buildCircuit(withSubstitutions(board, substitutions), condition.id);
+    const solved = solvePatiently(circuit);
+    // SPICE's sense (into the + terminal through the source) differs in sign between the rails; the draw is its size.
+    return board.rails.map((r) => ({ rail: r.label, amps: Math.abs(solved.sourceCurrents[railSourceName(r.id)] ?? NaN) }));
+  } catch (error) {
+    if (error instanceof ConvergenceError || error instanceof UserInputError) return undefined;
+    throw error;
+  }
 }
 
 /** The same changes in any order give the same key. */

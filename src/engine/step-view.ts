@@ -60,7 +60,6 @@ export interface WalkStep {
 /** What a person may type for a resistance the meter cannot show: the overload display. */
 export const OVERLOAD = /^\s*(ol|o\.l\.?|overload|open|inf(inity)?|∞)\s*$/i;
 
-/** A value as a person reads it; an infinite resistance is the meter's overload display. */
 /**
  * The two answers to every inspection. A customer is shown words, not a picture: the question
  * describes what to look for, so the answer says whether the board matches that description.
@@ -70,6 +69,7 @@ export const INSPECT_CHOICES = [
   { id: 'fault', label: 'found a problem', customerLabel: 'something looks different' },
 ] as const;
 
+/** A value as a person reads it; an infinite resistance is the meter's overload display. */
 export function showValue(value: number, unit: string, figures?: number): string {
   return Number.isFinite(value) ? formatReading(value, unit, figures) : 'overload (open)';
 }
@@ -86,8 +86,8 @@ export function describeBand(band: ExpectedBand): string {
 }
 
 /**
- * A detector time as the person reads it beside the question: "release, 10–90 %, with its knob at
- * the slow end: 2.25 s (1.72 s to 2.82 s with part tolerances), from R22 22 kΩ + RV3 1 MΩ and C14".
+ * A detector time as the person reads it beside the question: "release time (10–90 %), release knob
+ * at its slow end: 2.25 s (1.72 s to 2.82 s with part tolerances), from R22 22 kΩ + RV3 1 MΩ with C14".
  */
 export function describeTime(t: TimeBand): string {
   const shown = formatBand(t.min, t.max, t.nominal, 's');

@@ -16,7 +16,7 @@ export interface TranscriptEntry {
   expected?: ExpectedBand & { text: string };
   reading?: { text: string; value: number; outcome: string; branch: string };
   answer?: { id: string; label: string; customerLabel?: string };
-  /** observe: what the board's parts say the answer should be (see WalkStep.expectation). */
+  /** observe, caution: what the board's parts say the step should find (see WalkStep.expectation). */
   expectation?: string;
 }
 

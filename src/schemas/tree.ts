@@ -76,7 +76,7 @@ export const MeasureNodeSchema = z
     /** Hazards a caution earlier on every path must have covered. */
     hazards: z.array(HazardSchema).default([]),
     say: WordingSchema,
-    /** Where to go for each outcome; `default` catches any outcome not listed. A skipped step goes to `in-band`, else `default`. */
+    /** Where to go for each outcome; `default` catches any outcome not listed. A skipped step goes to `skipTo`, else `in-band`, else `default`. */
     branches: z
       .object({
         'in-band': NodeIdSchema.optional(),

@@ -7,7 +7,8 @@ const DECIBELS = /^\s*([+-−]?\s*\d+(?:[.,]\d+)?)\s*dB(u|v|fs)?\s*$/i;
 
 /**
  * A hiss level as an audio interface or AC millivoltmeter shows it: volts rms with any prefix
- * ("390uV", "0.39 mV"), or dBu ("-66 dBu"). Returned in volts rms; a level is never zero or less.
+ * ("390uV", "0.39 mV"), or dBu ("-66 dBu", against 0.7746 V) or dBV (against 1 V). Returned in volts
+ * rms; a level is never zero or less.
  */
 export function parseHissReading(text: string, field = 'hiss level'): number {
   const db = DECIBELS.exec(text);

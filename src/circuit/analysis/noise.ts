@@ -82,7 +82,6 @@ interface NoiseSource {
   circuit: Circuit;
 }
 
-
 /** √(4kTR) in V/√Hz. */
 export function thermalNoiseDensity(ohms: number, temperatureK: number): number {
   return Math.sqrt(4 * BOLTZMANN * temperatureK * ohms);
