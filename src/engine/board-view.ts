@@ -29,6 +29,11 @@ export interface BoardView {
    * part values; undefined when the board names no quiescent condition or it cannot be solved.
    */
   idleDraw(substitutions: Substitutions): Array<{ rail: string; amps: number }> | undefined;
+  /**
+   * The current through each LED of a part role under a condition role, amps, for the current part
+   * values; undefined when the board lacks the role or the condition, or it cannot be solved.
+   */
+  ledCurrents(role: PartRole, condition: ConditionRole, substitutions: Substitutions): Array<{ ref: string; amps: number }> | undefined;
   /** A detector time band for the current part values; undefined when the board lacks the parts' roles. */
   time(which: 'attack' | 'release', knob: 'fastest' | 'slowest', substitutions: Substitutions): TimeBand | undefined;
 }
@@ -73,6 +78,7 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
     return bands;
   };
   const drawMemo = new Map<string, Array<{ rail: string; amps: number }> | undefined>();
+  const ledMemo = new Map<string, Array<{ ref: string; amps: number }> | undefined>();
   const hissMemo = new Map<string, ExpectedBand | undefined>();
   const hissFor = (testPoint: string, condition: string, substitutions: Substitutions): ExpectedBand | undefined => {
     const key = `${testPoint}\u0000${condition}\u0000${substitutionsKey(substitutions)}`;
@@ -104,6 +110,14 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
       if (!drawMemo.has(key)) drawMemo.set(key, idleDrawOf(board, substitutions));
       return drawMemo.get(key);
     },
+    ledCurrents: (role, conditionRole, substitutions) => {
+      const condition = roleCondition(board, conditionRole);
+      const leds = roleParts(board, role).filter((p) => p.kind === 'led');
+      if (!condition || !condition.powered || leds.length === 0) return undefined;
+      const key = `${role}\u0000${condition.id}\u0000${substitutionsKey(substitutions)}`;
+      if (!ledMemo.has(key)) ledMemo.set(key, ledCurrentsOf(board, leds.map((p) => p.ref), condition.id, substitutions));
+      return ledMemo.get(key);
+    },
     time: (which, knob, substitutions) => {
       try {
         return detectorTimeBand(withSubstitutions(board, substitutions), which, knob);
@@ -123,6 +137,18 @@ function idleDrawOf(board: Board, substitutions: Substitutions): Array<{ rail: s
     const solved = solvePatiently(circuit);
     // SPICE's sense (into the + terminal through the source) differs in sign between the rails; the draw is its size.
     return board.rails.map((r) => ({ rail: r.label, amps: Math.abs(solved.sourceCurrents[railSourceName(r.id)] ?? NaN) }));
+  } catch (error) {
+    if (error instanceof ConvergenceError || error instanceof UserInputError) return undefined;
+    throw error;
+  }
+}
+
+function ledCurrentsOf(board: Board, refs: string[], condition: string, substitutions: Substitutions): Array<{ ref: string; amps: number }> | undefined {
+  try {
+    const { circuit, partElements } = buildCircuit(withSubstitutions(board, substitutions), condition);
+    const solved = solvePatiently(circuit);
+    // An LED's element current flows from anode to cathode: forward current is positive.
+    return refs.map((ref) => ({ ref, amps: solved.elements[(partElements[ref] ?? [])[0]]?.current ?? NaN }));
   } catch (error) {
     if (error instanceof ConvergenceError || error instanceof UserInputError) return undefined;
     throw error;

@@ -71,6 +71,13 @@ function rolesOf(node: TreeNode): Array<{ field: string; kind: 'testPoints' | 'c
       return [{ field: 'part', kind: 'parts', role: node.part }];
     case 'conclude':
       return node.parts.map((role, i) => ({ field: `parts.${i}`, kind: 'parts' as const, role }));
+    case 'observe':
+      return node.expect && 'leds' in node.expect
+        ? [
+            { field: 'expect.leds', kind: 'parts', role: node.expect.leds },
+            { field: 'expect.condition', kind: 'conditions', role: node.expect.condition },
+          ]
+        : [];
     default:
       return [];
   }

@@ -111,8 +111,35 @@ export function expectationOf(walk: WalkSetup, node: TreeNode, context: WalkCont
     return `idle draw about ${joined} (worked out from the parts, op-amps at their typical supply current): set the current limit a little above it`;
   }
   if (node.kind !== 'observe' || !node.expect) return undefined;
+  if ('leds' in node.expect) {
+    const leds = walk.view.ledCurrents(node.expect.leds, node.expect.condition, context.substitutions);
+    return leds && !leds.some((l) => !Number.isFinite(l.amps)) ? describeLeds(leds) : undefined;
+  }
   const time = walk.view.time(node.expect.time, node.expect.knob, context.substitutions);
   return time && describeTime(time);
+}
+
+/**
+ * How bright an LED looks at a current: lit from LED_LIT_AMPS, faint from LED_FAINT_AMPS, else dark.
+ * A judgement for indicator LEDs in a lit room (they are specified at 2–20 mA and still glow,
+ * dimly, at a tenth of a milliamp), not a datasheet figure.
+ */
+export const LED_LIT_AMPS = 1e-3;
+export const LED_FAINT_AMPS = 0.1e-3;
+
+/** "LED2, LED3 and LED4 lit (5.00 mA each); LED5 dark (4 µA)", from the solved currents. */
+export function describeLeds(leds: Array<{ ref: string; amps: number }>): string {
+  const look = (amps: number) => (amps >= LED_LIT_AMPS ? 'lit' : amps >= LED_FAINT_AMPS ? 'faint' : 'dark');
+  const groups = (['lit', 'faint', 'dark'] as const)
+    .map((state) => ({ state, leds: leds.filter((l) => look(l.amps) === state) }))
+    .filter((g) => g.leds.length > 0)
+    .map(({ state, leds: some }) => {
+      const refs = some.map((l) => l.ref);
+      const names = refs.length > 1 ? `${refs.slice(0, -1).join(', ')} and ${refs.at(-1)}` : refs[0];
+      const currents = some.map((l) => formatValue(Math.max(l.amps, 0), 'A')).join(', ');
+      return `${names} ${state} (${currents})`;
+    });
+  return `${groups.join('; ')}, from the currents the solver finds in them`;
 }
 
 function partView(walk: WalkSetup, ref: string, context: WalkContext): PartView {

@@ -112,10 +112,16 @@ export const ObserveNodeSchema = z
     /** Where to go without that instrument, or when the person skips the question. */
     alternative: NodeIdSchema.optional(),
     /**
-     * A time the question is about, computed from the board's parts and shown beside it: the
-     * detector's attack or release (10–90 %), with its knob at the fast or slow end of its travel.
+     * What the question should find, computed from the board's parts and shown beside it: the
+     * detector's attack or release time (10–90 %) with its knob at the fast or slow end of its
+     * travel, or which LEDs of a part role are lit under a condition (from their solved currents).
      */
-    expect: z.object({ time: z.enum(['attack', 'release']), knob: z.enum(['fastest', 'slowest']) }).strict().optional(),
+    expect: z
+      .union([
+        z.object({ time: z.enum(['attack', 'release']), knob: z.enum(['fastest', 'slowest']) }).strict(),
+        z.object({ leds: PartRoleSchema, condition: ConditionRoleSchema }).strict(),
+      ])
+      .optional(),
   })
   .strict()
   .refine((n) => n.instrument !== 'oscilloscope' || n.alternative !== undefined, {

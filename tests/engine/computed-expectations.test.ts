@@ -4,6 +4,7 @@ import { buildCircuit, DEMO_BOARD_FILE, loadBoard, measureAll, railSourceName, s
 import { formatValue } from '../../src/units/index.js';
 import { detectorTimeBand } from '../../src/circuit/analysis/index.js';
 import { createWalkMachine, currentStep, findTree, formatTranscriptText, walkFromAnswers } from '../../src/engine/index.js';
+import { describeLeds, LED_FAINT_AMPS, LED_LIT_AMPS } from '../../src/engine/step-view.js';
 
 /**
  * The pumping-release tree's release question shows the release time this board's parts give,
@@ -78,5 +79,38 @@ describe('the first power-up caution beside the idle draw', () => {
     expect(fitted[0].amps - draws[0]).toBeGreaterThan(0.1e-3);
     const other = currentStep(walk, { value: 'look-electrolytics', context: actor.getSnapshot().context });
     expect(other.expectation).toBeUndefined();
+  });
+});
+
+describe('an LED question beside the LEDs the solver finds lit', () => {
+  const board = loadBoard(DEMO_BOARD_FILE);
+  const tree = findTree('dead-meter');
+
+  it('names which meter LEDs this board lights at the test level, from their solved currents, and follows a changed part', () => {
+    const { machine, walk } = createWalkMachine(tree, board, { samples: 0, ranking: false });
+    const actor = createActor(machine).start();
+    const condition = board.roles.conditions['dc-injection-above-threshold']!;
+    const { circuit, partElements } = buildCircuit(board, condition);
+    const solved = solvePatiently(circuit);
+    const amps = (ref: string) => solved.elements[partElements[ref][0]].current;
+    // On the demo board the 1.00 V level lights the lower three meter LEDs and leaves the top one dark.
+    expect(amps('LED2')).toBeGreaterThan(LED_LIT_AMPS);
+    expect(amps('LED5')).toBeLessThan(LED_FAINT_AMPS);
+    const step = currentStep(walk, { value: 'leds-now', context: actor.getSnapshot().context });
+    expect(step.expectation).toBe(
+      `LED2, LED3 and LED4 lit (${['LED2', 'LED3', 'LED4'].map((r) => formatValue(amps(r), 'A')).join(', ')}); LED5 dark (${formatValue(amps('LED5'), 'A')}), from the currents the solver finds in them`,
+    );
+    // LED4's series resistor at a hundred times its value (390k for 3k9) starves it.
+    actor.send({ type: 'user.substitute', ref: 'R42', value: '390k' });
+    const changed = currentStep(walk, { value: 'leds-now', context: actor.getSnapshot().context });
+    expect(changed.expectation).toMatch(/^LED2 and LED3 lit \(5 mA, 5 mA\); LED4 and LED5 dark \(/);
+  });
+
+  it('calls an LED lit from 1 mA, faint from 0.1 mA, else dark', () => {
+    expect(describeLeds([{ ref: 'LED1', amps: 2e-3 }, { ref: 'LED2', amps: 0.5e-3 }, { ref: 'LED3', amps: 1e-6 }])).toBe(
+      'LED1 lit (2 mA); LED2 faint (500 µA); LED3 dark (1 µA), from the currents the solver finds in them',
+    );
+    // A reversed-biased LED carries a tiny negative current: shown as nothing flowing forward.
+    expect(describeLeds([{ ref: 'LED1', amps: -1e-12 }])).toBe('LED1 dark (0 A), from the currents the solver finds in them');
   });
 });

@@ -42,6 +42,7 @@ export function fakeView(options: { lacks?: string[] } = {}): BoardView {
     railVolts: [12, -12],
     time: () => undefined,
     idleDraw: () => undefined,
+    ledCurrents: () => undefined,
   };
 }
 

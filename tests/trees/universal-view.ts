@@ -34,6 +34,7 @@ export function universalView(): BoardView {
     railVolts: [12, -12],
     time: () => undefined,
     idleDraw: () => undefined,
+    ledCurrents: () => undefined,
   };
 }
 
