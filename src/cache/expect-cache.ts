@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import type { Board } from '../schemas/board.js';
-import { expectReport, type Band, type ExpectOptions, type ExpectReport } from '../circuit/analysis/index.js';
+import { boardFigures, expectReport, type Band, type BoardFigures, type ExpectOptions, type ExpectReport } from '../circuit/analysis/index.js';
 import { cacheKey, decodeNumber, encodeNumber, readCacheFile, writeCacheFile } from './cache-files.js';
 
 /**
@@ -70,4 +70,43 @@ export function cachedExpectReport(board: Board, options: ExpectOptions, disk?: 
   });
   writeCacheFile(disk.dir, name, { format: EXPECT_FORMAT, report: { ...report, bands: report.bands.map(encodeBand) } });
   return report;
+}
+
+/**
+ * The board's other figures (supply at rest, detector times, hiss) are a second of AC and operating
+ * point work for the same answer each run: kept beside the report, keyed by the board (substitutions
+ * applied), the program version and FIGURES_FORMAT, raised whenever their numbers change.
+ */
+export const FIGURES_FORMAT = 'voltwalk-figures/1';
+
+const band = z.object({ nominal: z.number(), min: z.number(), max: z.number() }).strict();
+const FiguresFileSchema = z.object({
+  format: z.literal(FIGURES_FORMAT),
+  figures: z
+    .object({
+      idleDraw: z.object({ condition: z.string(), rails: z.array(z.object({ rail: z.string(), amps: z.number() }).strict()) }).strict().optional(),
+      detector: z
+        .object({
+          attack: z.object({ fastest: band, slowest: band }).strict(),
+          release: z.object({ fastest: band, slowest: band }).strict(),
+        })
+        .strict()
+        .optional(),
+      // In the order boardFigures writes them: a kept copy prints exactly as a fresh one.
+      hiss: z.object({ testPoint: z.string(), condition: z.string(), nominal: z.number(), min: z.number(), max: z.number(), dBu: z.number() }).strict().optional(),
+    })
+    .strict(),
+});
+
+export function cachedBoardFigures(board: Board, disk?: DiskCache): BoardFigures {
+  if (!disk) return boardFigures(board);
+  const name = `figures-${cacheKey([FIGURES_FORMAT, disk.version, board])}.json`;
+  const found = FiguresFileSchema.safeParse(readCacheFile(disk.dir, name));
+  if (found.success) {
+    const figures: BoardFigures = found.data.figures;
+    return figures;
+  }
+  const figures = boardFigures(board);
+  writeCacheFile(disk.dir, name, { format: FIGURES_FORMAT, figures });
+  return figures;
 }

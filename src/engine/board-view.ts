@@ -1,5 +1,5 @@
-import { buildCircuit, railSourceName, roleCondition, roleParts, roleTestPoint, solvePatiently, withSubstitutions } from '../board/index.js';
-import { detectorTimeBand, expectBands, hissBand, type Band, type TimeBand } from '../circuit/analysis/index.js';
+import { buildCircuit, roleCondition, roleParts, roleTestPoint, solvePatiently, withSubstitutions } from '../board/index.js';
+import { detectorTimeBand, expectBands, hissBand, idleDraw, type Band, type TimeBand } from '../circuit/analysis/index.js';
 import { ConvergenceError } from '../circuit/index.js';
 import { UserInputError } from '../errors.js';
 import type { Board, Condition, Part, TestPoint } from '../schemas/board.js';
@@ -133,10 +133,7 @@ function idleDrawOf(board: Board, substitutions: Substitutions): Array<{ rail: s
   const condition = roleCondition(board, 'quiescent');
   if (!condition) return undefined;
   try {
-    const { circuit } = buildCircuit(withSubstitutions(board, substitutions), condition.id);
-    const solved = solvePatiently(circuit);
-    // SPICE's sense (into the + terminal through the source) differs in sign between the rails; the draw is its size.
-    return board.rails.map((r) => ({ rail: r.label, amps: Math.abs(solved.sourceCurrents[railSourceName(r.id)] ?? NaN) }));
+    return idleDraw(withSubstitutions(board, substitutions), condition.id);
   } catch (error) {
     if (error instanceof ConvergenceError || error instanceof UserInputError) return undefined;
     throw error;

@@ -5,6 +5,8 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { run } from '../../src/cli/run.js';
 import { memoryIo } from '../../src/cli/io.js';
 import { SMALL_BOARD } from '../circuit/analysis/fixtures/small-board.js';
+import { loadBoard } from '../../src/board/index.js';
+import { detectorTimeBand, hissBand, idleDraw, type BoardFigures } from '../../src/circuit/analysis/index.js';
 
 let boardFile: string;
 let cacheDir: string;
@@ -86,9 +88,10 @@ describe('voltwalk expect', () => {
       expect(code).toBe(0);
       return { out: r.out(), first: (JSON.parse(r.out()) as { testPoints: Array<{ nominal: number }> }).testPoints[0] };
     };
+    const reports = () => readdirSync(dir).filter((f) => f.startsWith('expect-'));
     const first = await cmd('--seed', '7');
-    const [file] = readdirSync(dir);
-    expect(readdirSync(dir)).toEqual([file]);
+    const [file] = reports();
+    expect(reports()).toEqual([file]);
     // The same options read the kept copy: a number changed in it shows in the output.
     const data = JSON.parse(readFileSync(join(dir, file), 'utf8'));
     data.report.bands[0].nominal = 123.456;
@@ -96,15 +99,44 @@ describe('voltwalk expect', () => {
     expect((await cmd('--seed', '7')).first.nominal).toBe(123.456);
     // --no-cache computes anew and leaves the folder as it was; other options are another file.
     expect((await cmd('--seed', '7', '--no-cache')).first.nominal).toBe(first.first.nominal);
-    expect(readdirSync(dir)).toEqual([file]);
+    expect(reports()).toEqual([file]);
     await cmd('--seed', '8');
-    expect(readdirSync(dir)).toHaveLength(2);
+    expect(reports()).toHaveLength(2);
     // A damaged copy is computed again and rewritten, never an error.
     writeFileSync(join(dir, file), '{"format": "voltwalk-expect/1", "report": {"bands": [{"id": 3}]}}');
     expect((await cmd('--seed', '7')).out).toBe(first.out);
     writeFileSync(join(dir, file), 'not json');
     expect((await cmd('--seed', '7')).out).toBe(first.out);
     expect(JSON.parse(readFileSync(join(dir, file), 'utf8')).format).toBe('voltwalk-expect/1');
+  });
+
+  it("ends the whole-board report with the board's other figures, each as the analyses work it out, and keeps them too", async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'voltwalk-expect-figures-'));
+    const cmd = async (...args: string[]) => {
+      const r = memoryIo({ env: { VOLTWALK_CACHE_DIR: dir } });
+      expect(await run(['expect', '--board', boardFile, '--samples', '0', ...args], r)).toBe(0);
+      return r.out();
+    };
+    const board = loadBoard(boardFile);
+    const { figures } = JSON.parse(await cmd('--json')) as { figures: BoardFigures };
+    expect(figures.idleDraw).toEqual({ condition: 'quiescent', rails: idleDraw(board, 'quiescent') });
+    const release = detectorTimeBand(board, 'release', 'slowest');
+    expect(figures.detector?.release.slowest).toEqual({ nominal: release.nominal, min: release.min, max: release.max });
+    // R6 100 kΩ + RV2's whole 1 MΩ track with C1 1 µF: 1.1 s × ln 9, by hand.
+    expect(figures.detector!.release.slowest.nominal).toBeCloseTo(1.1 * Math.log(9), 6);
+    const hiss = hissBand(board, 'TP7', 'quiescent');
+    expect(figures.hiss).toMatchObject({ testPoint: 'TP7', condition: 'quiescent', nominal: hiss.nominal, min: hiss.min, max: hiss.max });
+    const text = await cmd();
+    expect(text).toContain('Other figures (worked out from the parts; bands over their tolerances)');
+    expect(text).toMatch(/^  release time, 10–90 % +fast end 220 ms \(196 ms … 244 ms\), slow end 2\.42 s \(1\.78 s … 3\.14 s\)$/m);
+    expect(text).toMatch(/^  hiss at TP7 \[quiescent\] +9\.7 µV \(4\.4 µV … 19\.4 µV\) rms, -98\.0 dBu$/m);
+    // Kept: a figure changed in the kept file shows in the next run; one condition alone has no figures.
+    const kept = readdirSync(dir).find((f) => f.startsWith('figures-'))!;
+    const data = JSON.parse(readFileSync(join(dir, kept), 'utf8'));
+    data.figures.hiss.dBu = -1;
+    writeFileSync(join(dir, kept), JSON.stringify(data));
+    expect(await cmd()).toContain('rms, -1.0 dBu');
+    expect(await cmd('--condition', 'quiescent')).not.toContain('Other figures');
   });
 
   it('works on when the cache folder cannot be made (a file is in its way)', async () => {

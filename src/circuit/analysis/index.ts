@@ -18,3 +18,5 @@ export {
 export { detectorTimes, detectorTimeBand, LN9, type DetectorTimes, type PathTime, type PathPart, type TimeBand } from './detector-times.js';
 export { makeupNoise, type MakeupNoise, type MakeupNoiseOptions } from './makeup-noise.js';
 export { hissBand, HISS_ABOVE_DB, HISS_BELOW_DB, type HissBand } from './hiss-band.js';
+export { idleDraw } from './idle-draw.js';
+export { boardFigures, type BoardFigures, type FigureBand } from './board-figures.js';

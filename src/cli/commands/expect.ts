@@ -3,13 +3,13 @@ import type { Command } from '../command.js';
 import type { Io } from '../io.js';
 import { parseOptions } from '../args.js';
 import { UsageError } from '../../errors.js';
-import { DEMO_BOARD_FILE, loadBoard } from '../../board/index.js';
-import type { Band } from '../../circuit/analysis/index.js';
-import { cachedExpectReport } from '../../cache/expect-cache.js';
+import { DEMO_BOARD_FILE, loadBoard, withSubstitutions } from '../../board/index.js';
+import type { Band, BoardFigures } from '../../circuit/analysis/index.js';
+import { cachedBoardFigures, cachedExpectReport } from '../../cache/expect-cache.js';
 import { defaultCacheDir } from '../../cache/cache-files.js';
 import { version } from '../run.js';
 import { DEFAULT_METER, showReading } from '../../diagnosis/index.js';
-import { formatBand } from '../../units/index.js';
+import { formatBand, formatValue } from '../../units/index.js';
 import type { Board } from '../../schemas/board.js';
 
 const HELP = `Usage: voltwalk expect [--board FILE] [--condition NAME] [--set REF=VALUE]... [--samples N] [--seed N] [--no-cache] [--json]
@@ -28,8 +28,15 @@ the 0.5–99.5 % interval of a seeded Monte Carlo run. A reading outside min–m
   --seed N          Monte Carlo seed (default 1)
   --no-cache        compute anew, neither reading nor writing the copy kept from an earlier run
                     (kept in $VOLTWALK_CACHE_DIR, else $XDG_CACHE_HOME/voltwalk or ~/.cache/voltwalk)
-  --json            machine-readable output: {"testPoints": [{id, node, condition, nominal, min, max, unit, mcLow, mcHigh}]}
-                    (an open circuit, which a meter shows as overload, is null)
+  --json            machine-readable output: {"testPoints": [{id, node, condition, nominal, min, max, unit, mcLow, mcHigh}],
+                    "figures": {...}} (an open circuit, which a meter shows as overload, is null)
+
+Without --condition the report ends with the board's other figures, each where the board's roles
+say what to work it from: what each rail supplies at rest (to set a supply's current limit by), the
+detector's attack and release times (10–90 %) at both ends of their knobs, and the hiss at the
+makeup output at rest (rms, 20 Hz–20 kHz), each with its band. JSON: "figures": {"idleDraw":
+{condition, rails: [{rail, amps}]}, "detector": {"attack"|"release": {"fastest"|"slowest":
+{nominal, min, max}}} (seconds), "hiss": {testPoint, condition, nominal, min, max, dBu}} (volts rms).
 
 Examples:
   voltwalk expect --condition quiescent
@@ -73,10 +80,14 @@ export const command: Command = {
     const diskCache = values['no-cache'] ? undefined : { dir: defaultCacheDir(io.env), version: version() };
     const report = cachedExpectReport(board, { condition: values.condition, substitutions, samples, seed, onProgress }, diskCache);
     if (onProgress) io.stderr('\r\x1b[K');
+    // The figures beside the readings belong to the whole board, not to one condition.
+    const figures = values.condition === undefined ? cachedBoardFigures(withSubstitutions(board, substitutions), diskCache) : undefined;
     if (values.json) {
-      io.stdout(`${JSON.stringify({ board: board.id, samples, seed, substitutions, solves: report.solves, failures: report.failures, unsolved: report.unsolved, testPoints: report.bands.map(jsonBand) }, null, 2)}\n`);
+      const json = { board: board.id, samples, seed, substitutions, solves: report.solves, failures: report.failures, unsolved: report.unsolved, testPoints: report.bands.map(jsonBand) };
+      io.stdout(`${JSON.stringify(figures ? { ...json, figures } : json, null, 2)}\n`);
     } else {
       io.stdout(table(board, report.bands, samples, seed, substitutions));
+      if (figures) io.stdout(figuresText(figures));
       for (const u of report.unsolved) io.stderr(`voltwalk: no band for ${u.testPoints.join(', ')} in ${u.condition}: the healthy board could not be solved there (${u.reason})\n`);
       if (report.failures > 0) io.stderr(`voltwalk: ${report.failures} tolerance point(s) could not be solved and were left out of the bands\n`);
     }
@@ -153,4 +164,26 @@ function table(board: Board, bands: Band[], samples: number, seed: number, subs:
     lines.push(row(head), ...cells.map(row));
   }
   return `${lines.join('\n')}\n`;
+}
+
+/** The board's other figures, one line each, bands as the readings' bands are shown. */
+function figuresText(f: BoardFigures): string {
+  const rows: Array<[string, string]> = [];
+  if (f.idleDraw) rows.push([`supply at rest [${f.idleDraw.condition}]`, f.idleDraw.rails.map((r) => `${r.rail} ${formatValue(r.amps, 'A')}`).join(', ')]);
+  const band = (t: { nominal: number; min: number; max: number }, unit: string) => {
+    const shown = formatBand(t.min, t.max, t.nominal, unit);
+    return `${shown.nominal} (${shown.min} … ${shown.max})`;
+  };
+  if (f.detector) {
+    for (const which of ['attack', 'release'] as const) {
+      const { fastest, slowest } = f.detector[which];
+      // A path with no knob in it has one time, whichever end is asked for.
+      const one = fastest.nominal === slowest.nominal;
+      rows.push([`${which} time, 10–90 %`, one ? `${band(fastest, 's')}, no knob` : `fast end ${band(fastest, 's')}, slow end ${band(slowest, 's')}`]);
+    }
+  }
+  if (f.hiss) rows.push([`hiss at ${f.hiss.testPoint} [${f.hiss.condition}]`, `${band(f.hiss, 'V')} rms, ${f.hiss.dBu.toFixed(1)} dBu`]);
+  if (rows.length === 0) return '';
+  const width = Math.max(...rows.map((r) => r[0].length));
+  return `\nOther figures (worked out from the parts; bands over their tolerances)\n${rows.map(([k, v]) => `  ${k.padEnd(width)}  ${v}`).join('\n')}\n`;
 }
