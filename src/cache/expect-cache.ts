@@ -73,11 +73,11 @@ export function cachedExpectReport(board: Board, options: ExpectOptions, disk?: 
 }
 
 /**
- * The board's other figures (supply at rest, detector times, hiss) are a second of AC and operating
+ * The board's other figures (supply at rest, detector times, hiss, gains) are a second of AC and operating
  * point work for the same answer each run: kept beside the report, keyed by the board (substitutions
  * applied), the program version and FIGURES_FORMAT, raised whenever their numbers change.
  */
-export const FIGURES_FORMAT = 'voltwalk-figures/1';
+export const FIGURES_FORMAT = 'voltwalk-figures/2';
 
 const band = z.object({ nominal: z.number(), min: z.number(), max: z.number() }).strict();
 const FiguresFileSchema = z.object({
@@ -94,6 +94,10 @@ const FiguresFileSchema = z.object({
         .optional(),
       // In the order boardFigures writes them: a kept copy prints exactly as a fresh one.
       hiss: z.object({ testPoint: z.string(), condition: z.string(), nominal: z.number(), min: z.number(), max: z.number(), dBu: z.number() }).strict().optional(),
+      gain: z
+        .object({ testPoint: z.string(), frequency: z.number(), conditions: z.array(z.object({ condition: z.string(), db: z.number() }).strict()) })
+        .strict()
+        .optional(),
     })
     .strict(),
 });

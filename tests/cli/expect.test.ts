@@ -5,8 +5,8 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { run } from '../../src/cli/run.js';
 import { memoryIo } from '../../src/cli/io.js';
 import { SMALL_BOARD } from '../circuit/analysis/fixtures/small-board.js';
-import { loadBoard } from '../../src/board/index.js';
-import { detectorTimeBand, hissBand, idleDraw, type BoardFigures } from '../../src/circuit/analysis/index.js';
+import { DEMO_BOARD_FILE, loadBoard } from '../../src/board/index.js';
+import { boardFigures, detectorTimeBand, hissBand, idleDraw, type BoardFigures } from '../../src/circuit/analysis/index.js';
 
 let boardFile: string;
 let cacheDir: string;
@@ -126,6 +126,8 @@ describe('voltwalk expect', () => {
     expect(figures.detector!.release.slowest.nominal).toBeCloseTo(1.1 * Math.log(9), 6);
     const hiss = hissBand(board, 'TP7', 'quiescent');
     expect(figures.hiss).toMatchObject({ testPoint: 'TP7', condition: 'quiescent', nominal: hiss.nominal, min: hiss.min, max: hiss.max });
+    // No condition of this board carries a test signal: there is no gain to give.
+    expect(figures.gain).toBeUndefined();
     const text = await cmd();
     expect(text).toContain('Other figures (worked out from the parts; bands over their tolerances)');
     expect(text).toMatch(/^  release time, 10–90 % +fast end 220 ms \(196 ms … 244 ms\), slow end 2\.42 s \(1\.78 s … 3\.14 s\)$/m);
@@ -154,5 +156,17 @@ describe('voltwalk expect on the demo board', () => {
     // The +12 V rail after its protection diode spans about 11.74 V to 11.80 V: three figures
     // would print "11.7 V … 11.8 V", and a reading of 11.70 V would look inside it.
     expect(r.out()).toMatch(/TP1 +\+12 V rail after D1 +11\.77 V +11\.74 V … 11\.80 V/);
+  }, 120_000);
+
+  it('gives the makeup range as the gain difference between its knob ends: ×3.5 is 20·log10(3.5) = 10.88 dB', () => {
+    // The demo kit's makeup stage runs from unity to ×3.5 (its conditions say so); the decibels of a
+    // voltage ratio are 20·log10 of it (textbook).
+    const figures = boardFigures(loadBoard(DEMO_BOARD_FILE));
+    const db = (c: string) => figures.gain!.conditions.find((g) => g.condition === c)!.db;
+    expect(figures.gain!.testPoint).toBe('TP26');
+    expect(db('makeup-max') - db('makeup-min')).toBeCloseTo(20 * Math.log10(3.5), 1);
+    // Above the threshold the VCA turns the gain down; with the sidechain high-pass in, DC no longer reaches the detector.
+    expect(db('dc-above')).toBeLessThan(db('dc-below') - 1);
+    expect(db('sidechain-hp')).toBeCloseTo(db('dc-below'), 0);
   }, 120_000);
 });

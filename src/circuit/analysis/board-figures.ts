@@ -6,12 +6,14 @@ import { detectorTimeBand, type TimeBand } from './detector-times.js';
 import { hissBand } from './hiss-band.js';
 import { idleDraw } from './idle-draw.js';
 import { toDbu } from './noise.js';
+import { GAIN_FREQUENCY_HZ, signalGainDb } from './signal-gain.js';
 
 /**
  * The board's expected figures beside its test-point readings, each worked out from the parts where
  * the board's roles say what to work it from, and left out where they do not (or the circuit will
  * not solve): what the supply delivers at rest, the detector's attack and release at both ends of
- * their knobs, and the hiss at the makeup output (else the module output) at rest.
+ * their knobs, the hiss at the makeup output (else the module output) at rest, and the gain a tone
+ * on each condition's test signal sees to the module output.
  */
 export interface FigureBand {
   nominal: number;
@@ -25,6 +27,8 @@ export interface BoardFigures {
   detector?: Record<'attack' | 'release', Record<'fastest' | 'slowest', FigureBand>>;
   /** Volts rms over 20 Hz–20 kHz. */
   hiss?: FigureBand & { testPoint: string; condition: string; dBu: number };
+  /** Small-signal gain from each condition's test signal to the output, dB at `frequency` Hz (signal-gain.ts). */
+  gain?: { testPoint: string; frequency: number; conditions: Array<{ condition: string; db: number }> };
 }
 
 export function boardFigures(board: Board): BoardFigures {
@@ -44,6 +48,14 @@ export function boardFigures(board: Board): BoardFigures {
   if (rest && tp) {
     const hiss = unlessMissing(() => hissBand(board, tp.id, rest.id));
     if (hiss) figures.hiss = { testPoint: tp.id, condition: rest.id, nominal: hiss.nominal, min: hiss.min, max: hiss.max, dBu: toDbu(hiss.nominal) };
+  }
+  const out = roleTestPoint(board, 'output') ?? roleTestPoint(board, 'makeup-output');
+  if (out) {
+    const conditions = board.conditions.flatMap((c) => {
+      const db = unlessMissing(() => signalGainDb(board, c.id, out.id));
+      return db === undefined || !Number.isFinite(db) ? [] : [{ condition: c.id, db }];
+    });
+    if (conditions.length) figures.gain = { testPoint: out.id, frequency: GAIN_FREQUENCY_HZ, conditions };
   }
   return figures;
 }

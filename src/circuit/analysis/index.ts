@@ -20,3 +20,4 @@ export { makeupNoise, type MakeupNoise, type MakeupNoiseOptions } from './makeup
 export { hissBand, HISS_ABOVE_DB, HISS_BELOW_DB, type HissBand } from './hiss-band.js';
 export { idleDraw } from './idle-draw.js';
 export { boardFigures, type BoardFigures, type FigureBand } from './board-figures.js';
+export { signalGainDb, GAIN_FREQUENCY_HZ } from './signal-gain.js';

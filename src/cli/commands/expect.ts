@@ -33,10 +33,14 @@ the 0.5–99.5 % interval of a seeded Monte Carlo run. A reading outside min–m
 
 Without --condition the report ends with the board's other figures, each where the board's roles
 say what to work it from: what each rail supplies at rest (to set a supply's current limit by), the
-detector's attack and release times (10–90 %) at both ends of their knobs, and the hiss at the
-makeup output at rest (rms, 20 Hz–20 kHz), each with its band. JSON: "figures": {"idleDraw":
+detector's attack and release times (10–90 %) at both ends of their knobs, the hiss at the
+makeup output at rest (rms, 20 Hz–20 kHz), each with its band, and the gain at 1 kHz from each
+condition's test signal to the output. JSON: "figures": {"idleDraw":
 {condition, rails: [{rail, amps}]}, "detector": {"attack"|"release": {"fastest"|"slowest":
-{nominal, min, max}}} (seconds), "hiss": {testPoint, condition, nominal, min, max, dBu}} (volts rms).
+{nominal, min, max}}} (seconds), "hiss": {testPoint, condition, nominal, min, max, dBu} (volts rms),
+"gain": {testPoint, frequency, conditions: [{condition, db}]}}: the small-signal gain a tone riding
+on each condition's test signal sees to the output, so that between conditions it reads as the gain
+reduction at each DC level and the makeup range.
 
 Examples:
   voltwalk expect --condition quiescent
@@ -183,6 +187,8 @@ function figuresText(f: BoardFigures): string {
     }
   }
   if (f.hiss) rows.push([`hiss at ${f.hiss.testPoint} [${f.hiss.condition}]`, `${band(f.hiss, 'V')} rms, ${f.hiss.dBu.toFixed(1)} dBu`]);
+  // The gain a tone on each test level sees: between conditions, the gain reduction and the makeup range.
+  for (const g of f.gain?.conditions ?? []) rows.push([`gain to ${f.gain!.testPoint} [${g.condition}]`, `${g.db.toFixed(1)} dB at ${formatValue(f.gain!.frequency, 'Hz')}, from the test signal`]);
   if (rows.length === 0) return '';
   const width = Math.max(...rows.map((r) => r[0].length));
   return `\nOther figures (worked out from the parts; bands over their tolerances)\n${rows.map(([k, v]) => `  ${k.padEnd(width)}  ${v}`).join('\n')}\n`;
