@@ -268,6 +268,24 @@ export function readingEvent(step: WalkStep, text: string): WalkEvent {
   return { type: 'user.reading', value, text };
 }
 
+/**
+ * A reading taken off the tree's route, at the ranking's suggested probe (or any test point under
+ * any condition of the board): the test point and condition checked against the board, the text
+ * parsed as that test point's quantity ("OL" for an open resistance). A typo is a UserInputError
+ * naming the test point and the accepted forms. The machine records it only where the walk's
+ * cautions allow it (see probeAllowed).
+ */
+export function probeEvent(walk: WalkSetup, testPointId: string, conditionId: string, text: string): WalkEvent {
+  const board = walk.view.board;
+  const tp = board.testPoints.find((t) => t.id === testPointId);
+  const condition = board.conditions.find((c) => c.id === conditionId);
+  if (!tp || !condition) {
+    throw new UserInputError({ code: 'walk.unknown-probe', path: `${testPointId} under ${conditionId}`, message: 'this board has no such test point or condition', accepted: 'a test point and condition of the board' });
+  }
+  if (tp.quantity === 'resistance' && OVERLOAD.test(text)) return { type: 'user.probe', testPoint: tp.id, condition: condition.id, value: Infinity };
+  return { type: 'user.probe', testPoint: tp.id, condition: condition.id, value: parseReading(text, tp.quantity, `reading at ${tp.id}`) };
+}
+
 /** The answer event for an observe or inspect step; an unknown choice names the accepted ones. */
 export function answerEvent(step: WalkStep, choice: string): WalkEvent {
   const ids = (step.choices ?? []).map((c) => c.id);

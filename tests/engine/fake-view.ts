@@ -28,6 +28,7 @@ export function fakeView(options: { lacks?: string[] } = {}): BoardView {
     unpowered: { id: 'off', label: 'Off', powered: false, instructions: 'unplug', settings: {} },
   };
   (board as { conditions: unknown[] }).conditions = Object.values(conditions);
+  (board as { testPoints: unknown[] }).testPoints = Object.values(testPoints);
   const lacks = new Set(options.lacks ?? []);
   return {
     board,

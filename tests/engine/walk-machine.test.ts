@@ -6,7 +6,7 @@ vi.mock('../../src/engine/ranking.js', () => ({ rankFor: () => ({ note: 'ranking
 vi.mock('../../src/engine/board-view.js', () => ({ createBoardView: () => { throw new Error('engine tests use fakeView'); } }));
 
 import { walkMachineFor } from '../../src/engine/walk-machine.js';
-import { answerEvent, currentStep, readingEvent, substituteEvent } from '../../src/engine/step-view.js';
+import { answerEvent, currentStep, probeEvent, readingEvent, substituteEvent } from '../../src/engine/step-view.js';
 import { SAFETY_HOLD } from '../../src/engine/walk-context.js';
 import { UserInputError } from '../../src/errors.js';
 import { fakeView, smallTree } from './fake-view.js';
@@ -191,6 +191,17 @@ describe('walk machine: runtime safety guard', () => {
     w.actor.send({ type: 'user.acknowledge' });
     w.actor.send({ type: 'user.probe', testPoint: 'TP1', condition: 'rest', value: 4.7 });
     expect(w.actor.getSnapshot().context.extraReadings.map((r) => r.condition)).toEqual(['off', 'rest']);
+  });
+
+  it('builds a probe event from what was typed at a suggested test point, or names the accepted forms', () => {
+    const w = walkTo();
+    expect(probeEvent(w.walk, 'TP1', 'rest', '4.7')).toEqual({ type: 'user.probe', testPoint: 'TP1', condition: 'rest', value: 4.7 });
+    expect(probeEvent(w.walk, 'TP2', 'off', '10k')).toMatchObject({ value: 10_000 });
+    // A resistance past the meter's top range is read as overload.
+    expect(probeEvent(w.walk, 'TP2', 'off', 'OL')).toMatchObject({ value: Infinity });
+    expect(() => probeEvent(w.walk, 'TP1', 'rest', '4.7x')).toThrow(UserInputError);
+    expect(() => probeEvent(w.walk, 'TP1', 'rest', '4.7x')).toThrow(/reading at TP1/);
+    expect(() => probeEvent(w.walk, 'TP9', 'rest', '1')).toThrow(/no such test point or condition/);
   });
 
   it('user.back leaves the hold for the step before it', () => {

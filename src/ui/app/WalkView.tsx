@@ -143,6 +143,27 @@ export function WalkView({ services, run, width, wording, ranking, send, onSumma
           summary={summary}
           part={(ref) => services.engine.describePart(board, ref)}
           rankingNote={step.conclusion?.rankingNote}
+          probe={
+            summary.next
+              ? {
+                  check: (typed) => {
+                    try {
+                      return { ok: true, value: services.engine.probeEvent(run.walk, summary.next!.testPoint, summary.next!.condition, typed) };
+                    } catch (error) {
+                      return { ok: false, hint: hintOf(error) };
+                    }
+                  },
+                  take: (typed) => {
+                    const before = services.contextOf(run).extraReadings.length;
+                    send(services.engine.probeEvent(run.walk, summary.next!.testPoint, summary.next!.condition, typed));
+                    // The engine records a powered probe only once this walk has been through its power caution.
+                    return services.contextOf(run).extraReadings.length > before
+                      ? undefined
+                      : 'not recorded: this probe needs the module powered, and this walk has not been through its power caution. Start a walk that powers the board first.';
+                  },
+                }
+              : undefined
+          }
           onSummary={onSummary}
           onBack={back}
           onNewWalk={onNewWalk}

@@ -4,7 +4,7 @@ import { loadBoard, withSubstitutions } from '../../board/index.js';
 import { loadAllTrees } from '../../engine/load-tree.js';
 import { createWalkMachine, type WalkSetup } from '../../engine/walk-machine.js';
 import { createSession, loadSession, resumeWalk, saveSession, type Session } from '../../engine/session.js';
-import { currentStep, readingEvent, answerEvent, type WalkStep } from '../../engine/step-view.js';
+import { currentStep, readingEvent, answerEvent, probeEvent, type WalkStep } from '../../engine/step-view.js';
 import { meterAllowance } from '../../engine/outcome.js';
 import type { WalkContext, WalkEvent } from '../../engine/walk-context.js';
 import { UserInputError } from '../../errors.js';
@@ -99,7 +99,7 @@ export function substituted(board: Board, subs: Record<string, string | number>)
   return withSubstitutions(board, subs);
 }
 
-export const engine = { readingEvent, answerEvent, parseReading, formatValue, describePart, meterAllowance };
+export const engine = { readingEvent, answerEvent, probeEvent, parseReading, formatValue, describePart, meterAllowance };
 export type { WalkStep, WalkEvent, Session, Tree, Board };
 export { buildCaseSummary } from '../case/case-summary.js';
 export { formatCaseSummary } from '../case/format-case-summary.js';

@@ -8,6 +8,8 @@ import type { CaseSummary } from '../case/case-summary.js';
 import { partLine, type PartLineInfo } from '../parts/part-info.js';
 import { listFaults } from '../case/format-case-summary.js';
 import { FAULT_PRESENT_NOTE } from '../../engine/fault-present-note.js';
+import { TextField } from '../components/text-field/TextField.js';
+import type { Check } from '../components/text-field/use-text-field.js';
 
 interface Props {
   width: number;
@@ -20,6 +22,11 @@ interface Props {
   /** Why there is no ranking, when there is none. */
   rankingNote?: string;
   isActive?: boolean;
+  /**
+   * Takes a reading at the suggested probe: checks what was typed (the event, or a hint) and records
+   * it; returns why it was not recorded, if it was not. Absent: no probe can be taken here.
+   */
+  probe?: { check: (text: string) => Check<unknown>; take: (text: string) => string | undefined };
   onSummary: () => void;
   onBack: () => void;
   onNewWalk: () => void;
@@ -35,18 +42,27 @@ const SHOWN_PARTS = 3;
 const COMPACT_BELOW_ROWS = 32;
 
 /** The end of a walk: what was found, the ranked suspects (groups that readings cannot split shown as one), the next probe. */
-export function SuspectsScreen({ width, rows = 40, title, summary, part, rankingNote, isActive = true, onSummary, onBack, onNewWalk, onQuit }: Props) {
+export function SuspectsScreen({ width, rows = 40, title, summary, part, rankingNote, isActive = true, probe, onSummary, onBack, onNewWalk, onQuit }: Props) {
   // Reasons are cut to one line each so three suspects fit a screen; r shows them whole, wrapped.
   const [whole, setWhole] = useState(false);
+  // Typing a reading at the suggested probe; the note says why the last one was not recorded.
+  const [probing, setProbing] = useState(false);
+  const [note, setNote] = useState<string | undefined>();
+  const canProbe = probe !== undefined && summary.next !== undefined;
   useInput(
     (input, key) => {
+      if (input === 'p' && canProbe) {
+        setNote(undefined);
+        setProbing(true);
+        return;
+      }
       if (input === 'r') setWhole((w) => !w);
       if (input === 's') onSummary();
       if (input === 'n') onNewWalk();
       if (input === 'q') onQuit();
       if (key.escape) onBack();
     },
-    { isActive },
+    { isActive: isActive && !probing },
   );
   const c = summary.conclusion;
   const compact = rows < COMPACT_BELOW_ROWS;
@@ -56,7 +72,18 @@ export function SuspectsScreen({ width, rows = 40, title, summary, part, ranking
     <Frame
       title={title}
       width={width}
-      hints={[{ key: 's', does: 'summary for chat' }, ...(summary.suspects.length ? [{ key: 'r', does: whole ? 'short reasons' : 'full reasons' }] : []), { key: 'Esc', does: 'back' }, { key: 'n', does: 'new walk' }, { key: 'q', does: 'quit' }]}
+      hints={
+        probing
+          ? [{ key: 'Enter', does: 'record' }, { key: 'Esc', does: 'cancel' }]
+          : [
+              { key: 's', does: 'chat summary' },
+              ...(canProbe ? [{ key: 'p', does: 'add reading' }] : []),
+              { key: 'Esc', does: 'back' },
+              { key: 'q', does: 'quit' },
+              { key: 'n', does: 'new walk' },
+              ...(summary.suspects.length ? [{ key: 'r', does: whole ? 'short reasons' : 'full reasons' }] : []),
+            ]
+      }
     >
       {c ? (
         <Box flexDirection="column">
@@ -124,6 +151,23 @@ export function SuspectsScreen({ width, rows = 40, title, summary, part, ranking
           {summary.next.caution ? (
             <FlushLines>
               <Tinted tone="caution">{keepUnitsTogether(`!! ${summary.next.caution}`)}</Tinted>
+            </FlushLines>
+          ) : null}
+          {probing && probe ? (
+            <TextField
+              label={`Reading at ${summary.next.testPoint}:`}
+              placeholder="e.g. 4.2, 420mV or 4k7"
+              check={probe.check}
+              onSubmit={(_value, text) => {
+                setProbing(false);
+                setNote(probe.take(text));
+              }}
+              onCancel={() => setProbing(false)}
+            />
+          ) : null}
+          {note ? (
+            <FlushLines>
+              <Tinted tone="bad">{keepUnitsTogether(`! ${note}`)}</Tinted>
             </FlushLines>
           ) : null}
         </Box>

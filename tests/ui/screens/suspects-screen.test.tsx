@@ -4,7 +4,7 @@ import { render } from 'ink-testing-library';
 import { SuspectsScreen } from '../../../src/ui/screens/SuspectsScreen.js';
 import { SummaryScreen } from '../../../src/ui/screens/SummaryScreen.js';
 import { POWERED_CAUTION, type CaseSummary } from '../../../src/ui/case/case-summary.js';
-import { ENTER, press } from '../keys.js';
+import { BACKSPACE, ENTER, press } from '../keys.js';
 
 // Demo numbers: a made-up case on a made-up board, only to check what the screen shows.
 const summary: CaseSummary = {
@@ -52,7 +52,7 @@ describe('suspects screen', () => {
         '',
         'Next probe: TP6 detector under "DC above threshold" — red on TP6',
         '',
-        's summary for chat  ·  r full reasons  ·  Esc back  ·  n new walk  ·  q quit',
+        's chat summary  ·  Esc back  ·  q quit  ·  n new walk  ·  r full reasons',
       ].join('\n'),
     );
   });
@@ -102,7 +102,6 @@ describe('suspects screen', () => {
     expect(block.length).toBeGreaterThan(1);
     expect(block.map((l) => l.slice(10)).join(' ').replace(/\u00a0/g, ' ')).toBe(why);
     for (const line of block) expect(line.length).toBeLessThanOrEqual(60);
-    expect(lastFrame()).toContain('r short reasons');
   });
 
   it('on a short terminal shows two suspects with one place each and the parts to check on one line', () => {
@@ -117,6 +116,40 @@ describe('suspects screen', () => {
     expect(lines).not.toContain('          R21 · where R21 is');
     expect(lines).toContain('    … 1 less likely (in the case summary)');
     expect(lines.length).toBeLessThanOrEqual(24);
+  });
+
+  it('takes a reading at the suggested probe on p, refuses a typo with the accepted forms, and shows why one was not recorded', async () => {
+    const taken: string[] = [];
+    const probe = {
+      check: (text: string) => (/^[\d.]+$/.test(text) ? { ok: true as const, value: Number(text) } : { ok: false as const, hint: 'a voltage reading such as 4.2 or 420mV' }),
+      take: (text: string) => {
+        taken.push(text);
+        return taken.length > 1 ? 'not recorded: this probe needs the module powered' : undefined;
+      },
+    };
+    const { lastFrame, stdin } = render(
+      <SuspectsScreen width={100} title="t" summary={summary} part={part} probe={probe} onSummary={() => {}} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />,
+    );
+    expect(lastFrame()).toContain('p add reading');
+    await press(stdin, 'p');
+    expect(lastFrame()).toContain('Reading at TP6:');
+    expect(lastFrame()).toContain('Enter record  ·  Esc cancel');
+    await press(stdin, '4.2x', ENTER);
+    expect(lastFrame()).toContain('a voltage reading such as 4.2 or 420mV');
+    expect(taken).toEqual([]);
+    await press(stdin, BACKSPACE, ENTER);
+    expect(taken).toEqual(['4.2']);
+    expect(lastFrame()).not.toContain('Reading at TP6:');
+    await press(stdin, 'p', '5', ENTER);
+    expect(taken).toEqual(['4.2', '5']);
+    expect(lastFrame()).toContain('! not recorded: this probe needs the module powered');
+  });
+
+  it('offers no probe when none is suggested', () => {
+    const { lastFrame } = render(
+      <SuspectsScreen width={100} title="t" summary={{ ...summary, next: undefined }} part={part} probe={{ check: () => ({ ok: true, value: 1 }), take: () => undefined }} onSummary={() => {}} onBack={() => {}} onNewWalk={() => {}} onQuit={() => {}} />,
+    );
+    expect(lastFrame()).not.toContain('add reading');
   });
 
   it('says first, and in words, when a reading fits no modelled fault', () => {

@@ -7,7 +7,11 @@ export interface KeyHint {
   does: string;
 }
 
-/** The line at the bottom saying which keys do what here; drops hints from the end to fit. */
+/**
+ * The line at the bottom saying which keys do what here: spaced out when it fits, closer together
+ * when not, and only then does it drop hints from the end (so screens list the ones that matter
+ * most first).
+ */
 export function KeyHints({ hints, width }: { hints: KeyHint[]; width: number }) {
   return (
     <Text wrap="truncate-end">
@@ -18,6 +22,10 @@ export function KeyHints({ hints, width }: { hints: KeyHint[]; width: number }) 
 
 export function fitHints(hints: KeyHint[], width: number): string {
   const parts = hints.map((h) => `${h.key} ${h.does}`);
-  while (parts.length > 1 && parts.join('  ·  ').length > width) parts.pop();
-  return parts.join('  ·  ');
+  if (parts.join(WIDE).length <= width) return parts.join(WIDE);
+  while (parts.length > 1 && parts.join(NARROW).length > width) parts.pop();
+  return parts.join(NARROW);
 }
+
+const WIDE = '  ·  ';
+const NARROW = ' · ';
