@@ -1,6 +1,7 @@
 import type { Problem } from '../errors.js';
 import type { Wording } from '../schemas/tree.js';
-import { describeBand, currentStep, expectationOf, INSPECT_CHOICES, type WalkStep } from './step-view.js';
+import { describeBand, currentStep, expectationOf, INSPECT_CHOICES, showValue, type WalkStep } from './step-view.js';
+import { classifyReading } from './outcome.js';
 import type { ExpectedBand } from './outcome.js';
 import type { WalkContext } from './walk-context.js';
 import type { WalkSetup } from './walk-machine.js';
@@ -39,6 +40,11 @@ function answerLabels(walk: WalkSetup, node: string, id: string): { label: strin
   return { label: id === 'done' ? 'acknowledged' : id };
 }
 
+const SUGGESTED_PROBE: Wording = {
+  technician: 'Reading at the probe the ranking suggested.',
+  customer: 'The extra reading you took where I suggested.',
+};
+
 /** The steps met (current one excluded), each with its reading or answer, from the walk's context. */
 export function transcriptOf(walk: WalkSetup, snapshot: { value: unknown; context: WalkContext }): Transcript {
   const { context } = snapshot;
@@ -60,6 +66,22 @@ export function transcriptOf(walk: WalkSetup, snapshot: { value: unknown; contex
     const expectation = expectationOf(walk, plan.node, context);
     if (expectation && entry.skipped === undefined) entry.expectation = expectation;
     return entry;
+  });
+  // Readings taken at the ranking's suggested probes, after the tree's own steps, judged on their bands alike.
+  context.extraReadings.forEach((r, k) => {
+    const tp = walk.view.board.testPoints.find((t) => t.id === r.testPoint);
+    const condition = walk.view.board.conditions.find((c) => c.id === r.condition);
+    if (!tp || !condition) return;
+    const entry: TranscriptEntry = { node: `probe-${k + 1}`, kind: 'measure', say: SUGGESTED_PROBE };
+    entry.condition = { id: condition.id, label: condition.label };
+    entry.testPoint = { id: tp.id, label: tp.label, probe: tp.probe };
+    const band = walk.view.band(tp.id, condition.id, context.substitutions);
+    if (band) {
+      const outcome = classifyReading(r.value, band, walk.view.railVolts);
+      entry.expected = { ...band, text: describeBand(band) };
+      entry.reading = { text: showValue(r.value, band.unit), value: r.value, outcome, branch: '' };
+    }
+    entries.push(entry);
   });
   return {
     tree: { id: walk.tree.id, symptom: walk.tree.symptom },

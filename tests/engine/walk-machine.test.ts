@@ -8,6 +8,7 @@ vi.mock('../../src/engine/board-view.js', () => ({ createBoardView: () => { thro
 import { walkMachineFor } from '../../src/engine/walk-machine.js';
 import { answerEvent, currentStep, probeEvent, readingEvent, substituteEvent } from '../../src/engine/step-view.js';
 import { SAFETY_HOLD } from '../../src/engine/walk-context.js';
+import { transcriptOf } from '../../src/engine/transcript.js';
 import { UserInputError } from '../../src/errors.js';
 import { fakeView, smallTree } from './fake-view.js';
 
@@ -191,6 +192,13 @@ describe('walk machine: runtime safety guard', () => {
     w.actor.send({ type: 'user.acknowledge' });
     w.actor.send({ type: 'user.probe', testPoint: 'TP1', condition: 'rest', value: 4.7 });
     expect(w.actor.getSnapshot().context.extraReadings.map((r) => r.condition)).toEqual(['off', 'rest']);
+    // Both go into the transcript after the tree's own steps, judged against their bands.
+    const probes = transcriptOf(w.walk, w.actor.getSnapshot()).entries.filter((e) => e.node.startsWith('probe-'));
+    expect(probes.map((e) => [e.node, e.testPoint?.id, e.condition?.id, e.reading?.outcome])).toEqual([
+      ['probe-1', 'TP2', 'off', 'in-band'],
+      ['probe-2', 'TP1', 'rest', 'in-band'],
+    ]);
+    expect(probes[1].expected?.text).toBe('4.50 V to 4.90 V (nominal 4.70 V)');
   });
 
   it('builds a probe event from what was typed at a suggested test point, or names the accepted forms', () => {
