@@ -99,6 +99,18 @@ describe('voltwalk rank', () => {
     for (const line of groupLines) expect(line).not.toMatch(/[A-Z]+\d+\//);
   });
 
+  it('--fault-seen leaves "no fault" out and gives its share to the faults in proportion', async () => {
+    const reading = `TP1=${r2Open.TP1.toFixed(2)}`;
+    const open = RankResultSchema.parse(JSON.parse((await rank('--reading', reading, '--json', '--limit', '50')).out));
+    const seen = RankResultSchema.parse(JSON.parse((await rank('--reading', reading, '--json', '--limit', '50', '--fault-seen')).out));
+    expect(open.suspects.map((s) => s.part)).toContain('none');
+    expect(seen.suspects.map((s) => s.part)).not.toContain('none');
+    const pNone = open.suspects.find((s) => s.part === 'none')!.probability;
+    const r2 = (r: typeof open) => r.suspects.find((s) => s.id === 'R2/open')!.probability;
+    expect(r2(seen)).toBeCloseTo(r2(open) / (1 - pNone), 3);
+    expect((await rank('--reading', reading, '--fault-seen')).out).toContain('Suspects, most likely first (a fault was found, so "no fault" is left out):');
+  });
+
   it('--set: a part as fitted changes what healthy means', async () => {
     const board = tinyBoard();
     const fitted = { ...board, parts: board.parts.map((p) => (p.ref === 'R2' ? { ...p, value: '5k6' } : p)) };

@@ -8,6 +8,7 @@ import { DEMO_BOARD_FILE, findCondition, findTestPoint, loadBoard, withSubstitut
 import { parseReading } from '../../units/index.js';
 import { DEFAULT_METER, defaultCacheDir, dictionaryReady, faultLabel, groupMembersText, rankSuspects, showReading, type RankResult, type Reading } from '../../diagnosis/index.js';
 import { version } from '../run.js';
+import { FAULT_PRESENT_NOTE } from '../../engine/fault-present-note.js';
 
 const HELP = `Usage: voltwalk rank [--board FILE] [--condition NAME] --reading TP=VALUE ... [--set REF=VALUE]... [--limit N] [--no-cache] [--json]
 
@@ -23,6 +24,9 @@ suspects are then only the nearest fits, and the probe, the meter range or the s
                       From another condition: CONDITION:TP=VALUE, e.g. unpowered:TP1=12k
   --set REF=VALUE     a part as fitted on this board, e.g. --set R7=22k (repeatable)
   --limit N           most suspects to list (default 10)
+  --fault-seen        the board shows its fault (the meter stays dark, no output): leave "no fault" out,
+                      its share going to the faults in proportion. Many faults read exactly as a healthy
+                      board does at every test point, so readings alone cannot say this
   --no-cache          rebuild the fault dictionary instead of reusing the one kept from an earlier run
                       (kept in $VOLTWALK_CACHE_DIR, else $XDG_CACHE_HOME/voltwalk or ~/.cache/voltwalk)
   --json              machine-readable output: {"suspects": [{part, fault, probability, group, why, mode, id}],
@@ -51,6 +55,7 @@ export const command: Command = {
         limit: { type: 'string' },
         json: { type: 'boolean' },
         'no-cache': { type: 'boolean' },
+        'fault-seen': { type: 'boolean' },
       },
       false,
     );
@@ -70,9 +75,9 @@ export const command: Command = {
     if (!dictionaryReady(subject, { diskCache })) {
       io.stderr(`voltwalk: simulating every modelled fault of ${subject.name} under each condition; this takes ten seconds or more the first time${diskCache ? ' and is kept for later runs' : ''}\n`);
     }
-    const result = rankSuspects(subject, readings, { limit, diskCache });
+    const result = rankSuspects(subject, readings, { limit, diskCache, faultPresent: values['fault-seen'] === true });
     if (values.json) io.stdout(`${JSON.stringify(result, null, 2)}\n`);
-    else io.stdout(toText(subject, readings, result));
+    else io.stdout(toText(subject, readings, result, values['fault-seen'] === true));
     return 0;
   },
 };
@@ -110,7 +115,7 @@ function parseReadingArg(board: Board, text: string, defaultCondition: string): 
   return { testPoint: tp.id, condition: condition.id, value: parseReading(raw, tp.quantity, `--reading ${tp.id}`) };
 }
 
-function toText(board: Board, readings: Reading[], result: RankResult): string {
+function toText(board: Board, readings: Reading[], result: RankResult, faultSeen: boolean): string {
   const lines: string[] = [];
   const shown = readings.map((r) => {
     const tp = board.testPoints.find((t) => t.id === r.testPoint)!;
@@ -120,7 +125,7 @@ function toText(board: Board, readings: Reading[], result: RankResult): string {
   lines.push(`${board.name}: ${shown.length ? `readings ${shown.join(', ')}` : 'no readings yet — suspects by prior likelihood only'}`);
   lines.push('');
   for (const u of result.unexplained ?? []) lines.push(`! ${u.text}`, '');
-  lines.push('Suspects, most likely first:');
+  lines.push(faultSeen ? `Suspects, most likely first (${FAULT_PRESENT_NOTE}):` : 'Suspects, most likely first:');
   const width = Math.max(...result.suspects.map((s) => faultLabel(s).length), 10);
   result.suspects.forEach((s, i) => {
     lines.push(`  ${String(i + 1).padStart(2)}. ${faultLabel(s).padEnd(width)}  ${percent(s.probability).padStart(6)}  group ${s.group}`);
