@@ -79,7 +79,9 @@ export function formatTranscriptMarkdown(t: Transcript, wording: Wording = 'tech
   t.entries.forEach((e, i) => {
     const where = e.testPoint ? `${e.testPoint.id} ${e.testPoint.label}${wording === 'customer' ? ` (${e.testPoint.probe})` : ''}` : '';
     const result = e.skipped ? `skipped: ${e.skipped}` : e.reading ? e.reading.outcome : answerText(e, wording);
-    lines.push(`| ${i + 1} | ${cell(e.say[wording])} | ${cell(where)} | ${e.expected ? cell(e.expected.text) : ''} | ${e.reading ? cell(e.reading.text) : ''} | ${cell(result)} |`);
+    // A question's computed expectation (a release time, the LEDs lit, the idle draw) goes where a reading's band does.
+    const expected = e.expected?.text ?? e.expectation ?? '';
+    lines.push(`| ${i + 1} | ${cell(e.say[wording])} | ${cell(where)} | ${cell(expected)} | ${e.reading ? cell(e.reading.text) : ''} | ${cell(result)} |`);
   });
   lines.push('', ...currentLines(t.current, wording).map((l, i) => (i === 0 ? `**${l}**` : l.startsWith('    ') ? `- ${l.trim()}` : l.trim())));
   if (t.stopped) lines.push('', `**Stopped at ${t.stopped.node}:** ${t.stopped.problem.message}`);

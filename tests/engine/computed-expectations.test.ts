@@ -3,7 +3,7 @@ import { createActor } from 'xstate';
 import { buildCircuit, DEMO_BOARD_FILE, loadBoard, measureAll, railSourceName, solvePatiently } from '../../src/board/index.js';
 import { formatValue } from '../../src/units/index.js';
 import { detectorTimeBand } from '../../src/circuit/analysis/index.js';
-import { createWalkMachine, currentStep, findTree, formatTranscriptText, walkFromAnswers } from '../../src/engine/index.js';
+import { createWalkMachine, currentStep, findTree, formatTranscriptMarkdown, formatTranscriptText, walkFromAnswers } from '../../src/engine/index.js';
 import { describeLeds, LED_FAINT_AMPS, LED_LIT_AMPS } from '../../src/engine/step-view.js';
 
 /**
@@ -51,6 +51,7 @@ describe('a release question beside the computed release time', () => {
     expect(entry.answer?.id).toBe('normal');
     expect(entry.expectation).toMatch(/^release time \(10–90 %\), release knob at its slow end: 2\.25 s/);
     expect(formatTranscriptText(t)).toContain(`    expected: ${entry.expectation}`);
+    expect(formatTranscriptMarkdown(t)).toContain(`| ${entry.expectation} |  | about as shown (a third to three times) |`);
     // The oscilloscope route was passed over: no expectation is printed for a step not asked.
     expect(t.entries.find((e) => e.node === 'release-scope')?.expectation).toBeUndefined();
   });
