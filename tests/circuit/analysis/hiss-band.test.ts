@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { hissBand, HISS_ABOVE_DB, HISS_BELOW_DB } from '../../../src/circuit/analysis/index.js';
-import { validateBoard } from '../../../src/board/validate.js';
+import { boardFrom } from './fixtures/board-from.js';
 import type { BoardInput } from '../../../src/schemas/board.js';
 import { UserInputError } from '../../../src/errors.js';
 import { smallBoard } from './fixtures/small-board.js';
@@ -33,11 +33,7 @@ const DIVIDER: BoardInput = {
   roles: {},
 };
 
-function divider() {
-  const { board, problems } = validateBoard(structuredClone(DIVIDER), 'divider');
-  if (!board) throw new Error(problems.map((p) => `${p.path}: ${p.message}`).join('\n'));
-  return board;
-}
+const divider = () => boardFrom(DIVIDER);
 
 describe('the hiss a healthy board makes at a test point', () => {
   it('is the Johnson–Nyquist noise of the source resistance on a plain divider: √(4kTRB), R = 10 kΩ ∥ 10 kΩ', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { GAIN_FREQUENCY_HZ, signalGainDb } from '../../../src/circuit/analysis/index.js';
-import { validateBoard } from '../../../src/board/validate.js';
+import { boardFrom } from './fixtures/board-from.js';
 import type { BoardInput } from '../../../src/schemas/board.js';
 
 /** A textbook inverting amplifier, 10 kΩ in and 47 kΩ feedback, on ±12 V: made up for this test. */
@@ -29,8 +29,7 @@ const INVERTER: BoardInput = {
 };
 
 describe('small-signal gain from a condition\'s test signal', () => {
-  const { board, problems } = validateBoard(structuredClone(INVERTER), 'inverter');
-  if (!board) throw new Error(problems.map((p) => p.message).join('\n'));
+  const board = boardFrom(INVERTER);
 
   it('is −Rf/Rin for an inverting amplifier: 20·log10(47k/10k) = 13.44 dB (textbook)', () => {
     expect(GAIN_FREQUENCY_HZ).toBe(1000);
