@@ -16,7 +16,8 @@ the outcome, then the conclusion with the ranked suspects.
 
   --tree NAME       a tree id (see \`voltwalk trees\`) or a tree file
   --answers FILE    JSON object keyed by step id:
-                      measure steps: the reading as typed, e.g. "11.9 V", "-11,8", "4k7"
+                      measure steps: the reading as typed, e.g. "11.9 V", "-11,8", "4k7";
+                        a hiss level as the interface shows it, e.g. "-65.5 dBu", "411uV"
                       observe steps: a choice id, e.g. "yes"
                       inspect steps: "ok" or "fault"
                       caution and setup steps: true (acknowledged)
@@ -39,6 +40,7 @@ naming the step, and the exit code is 1. A walk that reaches a conclusion exits 
 Examples:
   voltwalk walk --tree no-gain-reduction --answers answers.json
   voltwalk walk --tree first-power-up --answers a.json --set R22=220k --md
+  voltwalk walk --tree noisy-makeup --answers examples/noisy-makeup-hiss.json
 `;
 
 function readAnswers(file: string): Answers {
