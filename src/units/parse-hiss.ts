@@ -3,7 +3,8 @@ import { fromDbu } from './decibels.js';
 import { parseReading } from './parse-value.js';
 
 const ACCEPTED = 'a hiss level in volts rms, e.g. 390uV, 390 µV or 0.39mV, or in dBu or dBV, e.g. -66 dBu';
-const DECIBELS = /^\s*([+-−]?\s*\d+(?:[.,]\d+)?)\s*dB(u|v|fs)?\s*$/i;
+// The sign may be typed as a hyphen or a true minus (U+2212); the hyphen goes first in the class, so no range is meant.
+const DECIBELS = /^\s*([-+\u2212]?\s*\d+(?:[.,]\d+)?)\s*dB(u|v|fs)?\s*$/i;
 
 /**
  * A hiss level as an audio interface or AC millivoltmeter shows it: volts rms with any prefix

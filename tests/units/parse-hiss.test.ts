@@ -36,5 +36,8 @@ describe('a hiss level as an audio interface or millivoltmeter shows it', () => 
     expect(problemOf('0').message).toContain('an rms level is above zero');
     expect(problemOf('-3uV').message).toContain('an rms level is above zero');
     for (const text of ['abc', '12 dB', '0', '4x2uV']) expect(problemOf(text).accepted).toMatch(/^a hiss level in volts rms, .* or in dBu or dBV/);
+    // A stray letter before a level in dB is a typo, never a sign: it must not come back as a number.
+    for (const text of ['x66 dBu', 'a-66 dBu', '=66 dBu']) expect(problemOf(text).accepted).toMatch(/^a hiss level/);
+    expect(parseHissReading('+4 dBu')).toBeCloseTo(0.7746 * 10 ** (4 / 20), 12);
   });
 });
