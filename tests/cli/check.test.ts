@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { chmodSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { run } from '../../src/cli/run.js';
@@ -48,6 +48,23 @@ describe('voltwalk check', () => {
     expect(lines[0]).toBe('ok  kits/b.json  (board small-amp: 19 parts, 8 test points, 3 conditions)');
     expect(lines[1]).toMatch(/^kits\/sub\/a\.json: .*not valid JSON/);
     expect(out.err()).toBe('voltwalk check: 1 problem in 1 of 2 files\n');
+  });
+
+  it('names a folder it cannot read in one line', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'voltwalk-check-'));
+    mkdirSync(join(dir, 'locked'));
+    chmodSync(join(dir, 'locked'), 0o000);
+    try {
+      const out = memoryIo({ cwd: dir });
+      // Run as root the folder stays readable (and empty): then it is reported as a folder, not a file.
+      const code = await run(['check', 'locked'], out);
+      expect(code).toBe(1);
+      const said = (out.out() + out.err()).trim().split('\n');
+      expect(said[0]).toMatch(/^(voltwalk: )?locked: (folder cannot be read \(permission denied\)|is a folder, not a file) \(accepted: /);
+      expect(out.out() + out.err()).not.toMatch(/\n\s+at /);
+    } finally {
+      chmodSync(join(dir, 'locked'), 0o755);
+    }
   });
   it('--json: the same verdicts as data', async () => {
     const out = io();

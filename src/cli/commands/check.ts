@@ -2,7 +2,7 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import type { Command } from '../command.js';
 import { parseOptions } from '../args.js';
-import { UsageError, formatProblem, type Problem } from '../../errors.js';
+import { UsageError, UserInputError, formatProblem, whyUnreadable, type Problem } from '../../errors.js';
 import { checkBoardFile } from '../../board/validate.js';
 import { parseJson } from '../../board/parse-json.js';
 import { BOARD_FORMAT } from '../../schemas/board.js';
@@ -126,7 +126,13 @@ function expandFolder(typed: string, cwd: string): string[] {
     return [typed];
   }
   if (!isFolder) return [typed];
-  const found = (readdirSync(resolve(cwd, typed), { recursive: true, encoding: 'utf8' }) as string[])
+  let names: string[];
+  try {
+    names = readdirSync(resolve(cwd, typed), { recursive: true, encoding: 'utf8' }) as string[];
+  } catch (error) {
+    throw new UserInputError({ code: 'check.folder', file: typed, message: `folder ${whyUnreadable(error)}`, accepted: 'a readable folder of board or tree files' });
+  }
+  const found = names
     .filter((name) => name.endsWith('.json'))
     .sort()
     .map((name) => join(typed, name));
