@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import type { Board } from '../schemas/board.js';
-import { boardFigures, expectReport, type Band, type BoardFigures, type ExpectOptions, type ExpectReport } from '../circuit/analysis/index.js';
+import { boardFigures, BoardFiguresSchema, expectReport, type Band, type BoardFigures, type ExpectOptions, type ExpectReport } from '../circuit/analysis/index.js';
 import { cacheKey, decodeNumber, encodeNumber, readCacheFile, writeCacheFile } from './cache-files.js';
 
 /**
@@ -79,37 +79,13 @@ export function cachedExpectReport(board: Board, options: ExpectOptions, disk?: 
  */
 export const FIGURES_FORMAT = 'voltwalk-figures/2';
 
-const band = z.object({ nominal: z.number(), min: z.number(), max: z.number() }).strict();
-const FiguresFileSchema = z.object({
-  format: z.literal(FIGURES_FORMAT),
-  figures: z
-    .object({
-      idleDraw: z.object({ condition: z.string(), rails: z.array(z.object({ rail: z.string(), amps: z.number() }).strict()) }).strict().optional(),
-      detector: z
-        .object({
-          attack: z.object({ fastest: band, slowest: band }).strict(),
-          release: z.object({ fastest: band, slowest: band }).strict(),
-        })
-        .strict()
-        .optional(),
-      // In the order boardFigures writes them: a kept copy prints exactly as a fresh one.
-      hiss: z.object({ testPoint: z.string(), condition: z.string(), nominal: z.number(), min: z.number(), max: z.number(), dBu: z.number() }).strict().optional(),
-      gain: z
-        .object({ testPoint: z.string(), frequency: z.number(), conditions: z.array(z.object({ condition: z.string(), db: z.number() }).strict()) })
-        .strict()
-        .optional(),
-    })
-    .strict(),
-});
+const FiguresFileSchema = z.object({ format: z.literal(FIGURES_FORMAT), figures: BoardFiguresSchema });
 
 export function cachedBoardFigures(board: Board, disk?: DiskCache): BoardFigures {
   if (!disk) return boardFigures(board);
   const name = `figures-${cacheKey([FIGURES_FORMAT, disk.version, board])}.json`;
   const found = FiguresFileSchema.safeParse(readCacheFile(disk.dir, name));
-  if (found.success) {
-    const figures: BoardFigures = found.data.figures;
-    return figures;
-  }
+  if (found.success) return found.data.figures;
   const figures = boardFigures(board);
   writeCacheFile(disk.dir, name, { format: FIGURES_FORMAT, figures });
   return figures;

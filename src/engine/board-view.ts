@@ -1,7 +1,5 @@
-import { buildCircuit, roleCondition, roleParts, roleTestPoint, solvePatiently, withSubstitutions } from '../board/index.js';
-import { detectorTimeBand, expectBands, hissBand, idleDraw, type Band, type TimeBand } from '../circuit/analysis/index.js';
-import { ConvergenceError } from '../circuit/index.js';
-import { UserInputError } from '../errors.js';
+import { roleCondition, roleParts, roleTestPoint, withSubstitutions } from '../board/index.js';
+import { detectorTimeBand, expectBands, hissBand, idleDraw, ledCurrents, unlessUnavailable, type Band, type TimeBand } from '../circuit/analysis/index.js';
 import type { Board, Condition, Part, TestPoint } from '../schemas/board.js';
 import type { ConditionRole, PartRole, TestPointRole } from '../schemas/roles.js';
 import type { ExpectedBand } from './outcome.js';
@@ -65,91 +63,50 @@ function buildBoardView(board: Board, options: BandOptions): BoardView {
     const key = `${condition}\u0000${substitutionsKey(substitutions)}`;
     let bands = memo.get(key);
     if (!bands) {
-      try {
-        bands = expectBands(board, { condition, substitutions, samples: options.samples, seed: options.seed });
-      } catch (error) {
-        // A changed part can leave the circuit unsolvable or invalid: the step then has no band
-        // (the step view says so and refuses readings) rather than the walk crashing.
-        if (!(error instanceof ConvergenceError || error instanceof UserInputError)) throw error;
-        bands = [];
-      }
+      // A changed part can leave the circuit unsolvable or invalid: the step then has no band
+      // (the step view says so and refuses readings) rather than the walk crashing.
+      bands = unlessUnavailable(() => expectBands(board, { condition, substitutions, samples: options.samples, seed: options.seed })) ?? [];
       memo.set(key, bands);
     }
     return bands;
   };
-  const drawMemo = new Map<string, Array<{ rail: string; amps: number }> | undefined>();
-  const ledMemo = new Map<string, Array<{ ref: string; amps: number }> | undefined>();
-  const hissMemo = new Map<string, ExpectedBand | undefined>();
-  const hissFor = (testPoint: string, condition: string, substitutions: Substitutions): ExpectedBand | undefined => {
-    const key = `${testPoint}\u0000${condition}\u0000${substitutionsKey(substitutions)}`;
-    if (!hissMemo.has(key)) {
-      let band: ExpectedBand | undefined;
-      try {
-        const { nominal, min, max, unit } = hissBand(withSubstitutions(board, substitutions), testPoint, condition);
-        band = { nominal, min, max, unit, kind: 'noise' };
-      } catch (error) {
-        if (!(error instanceof ConvergenceError || error instanceof UserInputError)) throw error;
-      }
-      hissMemo.set(key, band);
-    }
-    return hissMemo.get(key);
+  // Each figure is worked out once per set of part values; one the board cannot give is undefined.
+  const figures = new Map<string, unknown>();
+  const once = <T>(key: string, work: () => T): T | undefined => {
+    if (!figures.has(key)) figures.set(key, unlessUnavailable(work));
+    return figures.get(key) as T | undefined;
   };
+  const fitted = (substitutions: Substitutions) => withSubstitutions(board, substitutions);
   return {
     board,
     testPoint: (role) => roleTestPoint(board, role),
     condition: (role) => roleCondition(board, role),
     parts: (role) => roleParts(board, role),
     band: (testPoint, condition, substitutions, quantity = 'dc') => {
-      if (quantity === 'noise') return hissFor(testPoint, condition, substitutions);
+      if (quantity === 'noise') {
+        return once(`hiss\u0000${testPoint}\u0000${condition}\u0000${substitutionsKey(substitutions)}`, (): ExpectedBand => {
+          const { nominal, min, max, unit } = hissBand(fitted(substitutions), testPoint, condition);
+          return { nominal, min, max, unit, kind: 'noise' };
+        });
+      }
       const found = bandsFor(condition, substitutions).find((b) => b.id === testPoint && b.condition === condition);
       return found && { nominal: found.nominal, min: found.min, max: found.max, unit: found.unit };
     },
     railVolts: board.rails.map((r) => r.volts),
     idleDraw: (substitutions) => {
-      const key = substitutionsKey(substitutions);
-      if (!drawMemo.has(key)) drawMemo.set(key, idleDrawOf(board, substitutions));
-      return drawMemo.get(key);
+      const condition = roleCondition(board, 'quiescent');
+      return condition && once(`draw\u0000${substitutionsKey(substitutions)}`, () => idleDraw(fitted(substitutions), condition.id));
     },
     ledCurrents: (role, conditionRole, substitutions) => {
       const condition = roleCondition(board, conditionRole);
       const leds = roleParts(board, role).filter((p) => p.kind === 'led');
       if (!condition || !condition.powered || leds.length === 0) return undefined;
-      const key = `${role}\u0000${condition.id}\u0000${substitutionsKey(substitutions)}`;
-      if (!ledMemo.has(key)) ledMemo.set(key, ledCurrentsOf(board, leds.map((p) => p.ref), condition.id, substitutions));
-      return ledMemo.get(key);
+      return once(`leds\u0000${role}\u0000${condition.id}\u0000${substitutionsKey(substitutions)}`, () =>
+        ledCurrents(fitted(substitutions), leds.map((p) => p.ref), condition.id),
+      );
     },
-    time: (which, knob, substitutions) => {
-      try {
-        return detectorTimeBand(withSubstitutions(board, substitutions), which, knob);
-      } catch (error) {
-        if (error instanceof UserInputError) return undefined;
-        throw error;
-      }
-    },
+    time: (which, knob, substitutions) => once(`time\u0000${which}\u0000${knob}\u0000${substitutionsKey(substitutions)}`, () => detectorTimeBand(fitted(substitutions), which, knob)),
   };
-}
-
-function idleDrawOf(board: Board, substitutions: Substitutions): Array<{ rail: string; amps: number }> | undefined {
-  const condition = roleCondition(board, 'quiescent');
-  if (!condition) return undefined;
-  try {
-    return idleDraw(withSubstitutions(board, substitutions), condition.id);
-  } catch (error) {
-    if (error instanceof ConvergenceError || error instanceof UserInputError) return undefined;
-    throw error;
-  }
-}
-
-function ledCurrentsOf(board: Board, refs: string[], condition: string, substitutions: Substitutions): Array<{ ref: string; amps: number }> | undefined {
-  try {
-    const { circuit, partElements } = buildCircuit(withSubstitutions(board, substitutions), condition);
-    const solved = solvePatiently(circuit);
-    // An LED's element current flows from anode to cathode: forward current is positive.
-    return refs.map((ref) => ({ ref, amps: solved.elements[(partElements[ref] ?? [])[0]]?.current ?? NaN }));
-  } catch (error) {
-    if (error instanceof ConvergenceError || error instanceof UserInputError) return undefined;
-    throw error;
-  }
 }
 
 /** The same changes in any order give the same key. */

@@ -106,9 +106,7 @@ export function expectationOf(walk: WalkSetup, node: TreeNode, context: WalkCont
   if (node.kind === 'caution' && node.covers.includes('first-power-up-current-limit')) {
     const draw = walk.view.idleDraw(context.substitutions);
     if (!draw || draw.some((d) => !Number.isFinite(d.amps))) return undefined;
-    const list = draw.map((d) => `${formatValue(d.amps, 'A')} from ${d.rail}`);
-    const joined = list.length > 1 ? `${list.slice(0, -1).join(', ')} and ${list.at(-1)}` : list[0];
-    return `idle draw about ${joined} (worked out from the parts, op-amps at their typical supply current): set the current limit a little above it`;
+    return `idle draw about ${inWords(draw.map((d) => `${formatValue(d.amps, 'A')} from ${d.rail}`))} (worked out from the parts, op-amps at their typical supply current): set the current limit a little above it`;
   }
   if (node.kind !== 'observe' || !node.expect) return undefined;
   if ('leds' in node.expect) {
@@ -134,8 +132,7 @@ export function describeLeds(leds: Array<{ ref: string; amps: number }>): string
     .map((state) => ({ state, leds: leds.filter((l) => look(l.amps) === state) }))
     .filter((g) => g.leds.length > 0)
     .map(({ state, leds: some }) => {
-      const refs = some.map((l) => l.ref);
-      const names = refs.length > 1 ? `${refs.slice(0, -1).join(', ')} and ${refs.at(-1)}` : refs[0];
+      const names = inWords(some.map((l) => l.ref));
       const currents = some.map((l) => formatValue(Math.max(l.amps, 0), 'A')).join(', ');
       return `${names} ${state} (${currents})`;
     });
@@ -310,4 +307,9 @@ export function substituteEvent(walk: WalkSetup, ref: string, value: string): Wa
     throw new UserInputError({ code: 'walk.impossible-value', path: part.ref, message: `${value} is not a possible value for ${part.ref}`, accepted: `a positive value in ${unit}` });
   }
   return { type: 'user.substitute', ref: part.ref, value: value.trim() };
+}
+
+/** "a", "a and b", "a, b and c". */
+function inWords(items: string[]): string {
+  return items.length > 1 ? `${items.slice(0, -1).join(', ')} and ${items.at(-1)}` : (items[0] ?? '');
 }

@@ -1,10 +1,9 @@
+import { z } from 'zod';
 import type { Board } from '../../schemas/board.js';
-import { UserInputError } from '../../errors.js';
-import { ConvergenceError } from '../errors.js';
 import { roleCondition, roleTestPoint } from '../../board/index.js';
 import { detectorTimeBand, type TimeBand } from './detector-times.js';
 import { hissBand } from './hiss-band.js';
-import { idleDraw } from './idle-draw.js';
+import { idleDraw, unlessUnavailable } from './operating-figures.js';
 import { toDbu } from './noise.js';
 import { GAIN_FREQUENCY_HZ, signalGainDb } from './signal-gain.js';
 
@@ -15,30 +14,32 @@ import { GAIN_FREQUENCY_HZ, signalGainDb } from './signal-gain.js';
  * their knobs, the hiss at the makeup output (else the module output) at rest, and the gain a tone
  * on each condition's test signal sees to the module output.
  */
-export interface FigureBand {
-  nominal: number;
-  min: number;
-  max: number;
-}
+const FigureBandSchema = z.object({ nominal: z.number(), min: z.number(), max: z.number() }).strict();
+const KnobEndsSchema = z.object({ fastest: FigureBandSchema, slowest: FigureBandSchema }).strict();
 
-export interface BoardFigures {
-  idleDraw?: { condition: string; rails: Array<{ rail: string; amps: number }> };
-  /** 10–90 % times in seconds, with the knob at each end of its travel. */
-  detector?: Record<'attack' | 'release', Record<'fastest' | 'slowest', FigureBand>>;
-  /** Volts rms over 20 Hz–20 kHz. */
-  hiss?: FigureBand & { testPoint: string; condition: string; dBu: number };
-  /** Small-signal gain from each condition's test signal to the output, dB at `frequency` Hz (signal-gain.ts). */
-  gain?: { testPoint: string; frequency: number; conditions: Array<{ condition: string; db: number }> };
-}
+/** The figures' one definition: the report prints them, `--json` writes them, and the disk cache checks its copy against it. */
+export const BoardFiguresSchema = z
+  .object({
+    idleDraw: z.object({ condition: z.string(), rails: z.array(z.object({ rail: z.string(), amps: z.number() }).strict()) }).strict().optional(),
+    /** 10–90 % times in seconds, with the knob at each end of its travel. */
+    detector: z.object({ attack: KnobEndsSchema, release: KnobEndsSchema }).strict().optional(),
+    /** Volts rms over 20 Hz–20 kHz; keys in the order boardFigures writes them, so a kept copy prints as a fresh one. */
+    hiss: z.object({ testPoint: z.string(), condition: z.string(), nominal: z.number(), min: z.number(), max: z.number(), dBu: z.number() }).strict().optional(),
+    /** Small-signal gain from each condition's test signal to the output, dB at `frequency` Hz (signal-gain.ts). */
+    gain: z.object({ testPoint: z.string(), frequency: z.number(), conditions: z.array(z.object({ condition: z.string(), db: z.number() }).strict()) }).strict().optional(),
+  })
+  .strict();
+export type BoardFigures = z.infer<typeof BoardFiguresSchema>;
+export type FigureBand = z.infer<typeof FigureBandSchema>;
 
 export function boardFigures(board: Board): BoardFigures {
   const figures: BoardFigures = {};
   const rest = roleCondition(board, 'quiescent');
   if (rest) {
-    const rails = unlessMissing(() => idleDraw(board, rest.id));
+    const rails = unlessUnavailable(() => idleDraw(board, rest.id));
     if (rails) figures.idleDraw = { condition: rest.id, rails };
   }
-  const detector = unlessMissing(() => {
+  const detector = unlessUnavailable(() => {
     const end = (t: TimeBand): FigureBand => ({ nominal: t.nominal, min: t.min, max: t.max });
     const both = (which: 'attack' | 'release') => ({ fastest: end(detectorTimeBand(board, which, 'fastest')), slowest: end(detectorTimeBand(board, which, 'slowest')) });
     return { attack: both('attack'), release: both('release') };
@@ -46,26 +47,16 @@ export function boardFigures(board: Board): BoardFigures {
   if (detector) figures.detector = detector;
   const tp = roleTestPoint(board, 'makeup-output') ?? roleTestPoint(board, 'output');
   if (rest && tp) {
-    const hiss = unlessMissing(() => hissBand(board, tp.id, rest.id));
+    const hiss = unlessUnavailable(() => hissBand(board, tp.id, rest.id));
     if (hiss) figures.hiss = { testPoint: tp.id, condition: rest.id, nominal: hiss.nominal, min: hiss.min, max: hiss.max, dBu: toDbu(hiss.nominal) };
   }
   const out = roleTestPoint(board, 'output') ?? roleTestPoint(board, 'makeup-output');
   if (out) {
     const conditions = board.conditions.flatMap((c) => {
-      const db = unlessMissing(() => signalGainDb(board, c.id, out.id));
+      const db = unlessUnavailable(() => signalGainDb(board, c.id, out.id));
       return db === undefined || !Number.isFinite(db) ? [] : [{ condition: c.id, db }];
     });
     if (conditions.length) figures.gain = { testPoint: out.id, frequency: GAIN_FREQUENCY_HZ, conditions };
   }
   return figures;
-}
-
-/** A figure the board lacks the roles for, or whose circuit does not solve, is left out. */
-function unlessMissing<T>(work: () => T): T | undefined {
-  try {
-    return work();
-  } catch (error) {
-    if (error instanceof UserInputError || error instanceof ConvergenceError) return undefined;
-    throw error;
-  }
 }

@@ -1,6 +1,6 @@
 import type { Board } from '../../schemas/board.js';
 import { UserInputError } from '../../errors.js';
-import { buildCircuit, findCondition, findTestPoint } from '../../board/index.js';
+import { buildCircuit, findCondition, findTestPoint, solvePatiently } from '../../board/index.js';
 import { outputNoise, type NoiseResult } from './noise.js';
 
 /**
@@ -43,7 +43,8 @@ export function hissBand(board: Board, testPointId: string, conditionId: string)
     });
   }
   const { circuit, netNode } = buildCircuit(board, condition.id);
-  const noise = outputNoise(circuit, { output: netNode(tp.net), reference: netNode(tp.refNet ?? board.ground) });
+  // The operating point as every other figure finds it: with the board's fallbacks when plain solving fails.
+  const noise = outputNoise(circuit, { output: netNode(tp.net), reference: netNode(tp.refNet ?? board.ground), op: solvePatiently(circuit) });
   const kinds = new Map(circuit.elements.map((e) => [e.name.toLowerCase(), e.kind]));
   const thermal = Math.sqrt(noise.contributions.filter((c) => RESISTIVE.has(kinds.get(c.element.toLowerCase()) ?? '')).reduce((a, c) => a + c.rms ** 2, 0));
   return { nominal: noise.rms, min: thermal * 10 ** (-HISS_BELOW_DB / 20), max: noise.rms * 10 ** (HISS_ABOVE_DB / 20), unit: 'V', noise };

@@ -18,6 +18,6 @@ export {
 export { detectorTimes, detectorTimeBand, LN9, type DetectorTimes, type PathTime, type PathPart, type TimeBand } from './detector-times.js';
 export { makeupNoise, type MakeupNoise, type MakeupNoiseOptions } from './makeup-noise.js';
 export { hissBand, HISS_ABOVE_DB, HISS_BELOW_DB, type HissBand } from './hiss-band.js';
-export { idleDraw } from './idle-draw.js';
-export { boardFigures, type BoardFigures, type FigureBand } from './board-figures.js';
+export { idleDraw, ledCurrents, unlessUnavailable } from './operating-figures.js';
+export { boardFigures, BoardFiguresSchema, type BoardFigures, type FigureBand } from './board-figures.js';
 export { signalGainDb, GAIN_FREQUENCY_HZ } from './signal-gain.js';

@@ -1,5 +1,5 @@
 import type { Board } from '../../schemas/board.js';
-import { buildCircuit, findTestPoint, SIGNAL_SOURCE } from '../../board/index.js';
+import { buildCircuit, findTestPoint, SIGNAL_SOURCE, solvePatiently } from '../../board/index.js';
 import { createAcSolver } from '../ac-solver.js';
 import { GROUND } from '../netlist.js';
 
@@ -19,7 +19,7 @@ export function signalGainDb(board: Board, conditionId: string, testPointId: str
   const tp = findTestPoint(board, testPointId);
   const { circuit, netNode } = buildCircuit(board, conditionId);
   const driven = { ...circuit, elements: circuit.elements.map((e) => (e.kind === 'vsource' && e.name === SIGNAL_SOURCE ? { ...e, ac: { mag: 1, phaseDeg: 0 } } : e)) };
-  const nodes = createAcSolver(driven).solve(GAIN_FREQUENCY_HZ).nodes;
+  const nodes = createAcSolver(driven, { op: solvePatiently(circuit) }).solve(GAIN_FREQUENCY_HZ).nodes;
   const at = (net: string) => nodes[netNode(net)] ?? nodes[GROUND];
   const out = at(tp.net);
   const ref = at(tp.refNet ?? board.ground);
