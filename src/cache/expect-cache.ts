@@ -77,7 +77,7 @@ export function cachedExpectReport(board: Board, options: ExpectOptions, disk?: 
  * point work for the same answer each run: kept beside the report, keyed by the board (substitutions
  * applied), the program version and FIGURES_FORMAT, raised whenever their numbers change.
  */
-export const FIGURES_FORMAT = 'voltwalk-figures/2';
+export const FIGURES_FORMAT = 'voltwalk-figures/3';
 
 const FiguresFileSchema = z.object({ format: z.literal(FIGURES_FORMAT), figures: BoardFiguresSchema });
 
